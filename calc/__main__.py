@@ -1,0 +1,101 @@
+"""Command line: the scripting interface for engineers.
+
+    python -m calc tools [--json] [--units us]
+    python -m calc run ID key=value ... [--units us] [--json] [--svg FILE]
+
+Exit status 0 on an answer, 2 on bad input.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+
+from . import bridge
+
+LEVEL_MARK = {"ok": "OK   ", "watch": "WATCH", "act": "ACT  "}
+
+
+def _parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(prog="python -m calc", description="Sumpside calculators")
+    sub = parser.add_subparsers(dest="command", required=True)
+    listing = sub.add_parser("tools", help="list the tools and their inputs")
+    listing.add_argument("--json", action="store_true", help="print the catalogue as JSON")
+    listing.add_argument("--units", default="metric", choices=("metric", "us"))
+    run = sub.add_parser("run", help="run one tool: run ID key=value ...")
+    run.add_argument("tool", help="tool id, see `python -m calc tools`")
+    run.add_argument("pairs", nargs="*", metavar="key=value")
+    run.add_argument("--units", default="metric", choices=("metric", "us"))
+    run.add_argument("--json", action="store_true", help="print the bridge's JSON answer")
+    run.add_argument("--svg", metavar="FILE", help="write the tool's chart, if it draws one")
+    return parser
+
+
+def _print_catalogue(system: str) -> None:
+    for item in bridge.catalogue(system):
+        print(f"{item['id']}  —  {item['title']}")
+        print(f"    {item['summary']}")
+        for f in item["inputs"]:
+            if f["choices"]:
+                detail = "one of " + ", ".join(c[0] for c in f["choices"])
+            else:
+                detail = f["unit"] or "number"
+            default = "" if f["default"] is None else f", default {f['default']:g}" if isinstance(
+                f["default"], float) else f", default {f['default']}"
+            print(f"    {f['key']:<14} {f['label']} [{detail}{default}]")
+        print()
+
+
+def _print_answer(answer: dict, tool_outputs: dict) -> None:
+    for key, shown in answer["text"].items():
+        print(f"{tool_outputs.get(key, key):<42} {shown}")
+    if answer["verdicts"]:
+        print()
+    for v in answer["verdicts"]:
+        print(f"{LEVEL_MARK[v['level']]} {v['message']}  ({v['basis']})")
+    for note in answer["notes"]:
+        print(f"note: {note}")
+    if answer["sources"]:
+        print("sources: " + "; ".join(answer["sources"]))
+
+
+def main(argv: list[str] | None = None) -> int:
+    args = _parser().parse_args(argv)
+    if args.command == "tools":
+        if args.json:
+            print(json.dumps(bridge.catalogue(args.units), indent=2, ensure_ascii=False))
+        else:
+            _print_catalogue(args.units)
+        return 0
+    inputs, bad = {}, []
+    for pair in args.pairs:
+        key, sep, value = pair.partition("=")
+        if not sep or not key:
+            bad.append({"field": pair, "message": "arguments are key=value"})
+        inputs[key.strip()] = value
+    answer = bridge.run(args.tool, inputs, args.units) if not bad else {
+        "tool": args.tool, "ok": False, "errors": bad}
+    if args.json:
+        print(json.dumps(answer, indent=2, ensure_ascii=False))
+    elif answer["ok"]:
+        labels = {o["key"]: o["label"] for t in bridge.catalogue(args.units)
+                  if t["id"] == args.tool for o in t["outputs"]}
+        _print_answer(answer, labels)
+    else:
+        for err in answer["errors"]:
+            print(f"error: {err['field']}: {err['message']}", file=sys.stderr)
+    if not answer["ok"]:
+        return 2
+    if args.svg:
+        charts = answer.get("charts") or {}
+        if not charts:
+            print(f"error: {args.tool} draws no chart", file=sys.stderr)
+            return 2
+        with open(args.svg, "w", encoding="utf-8") as handle:
+            handle.write(next(iter(charts.values())))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,269 @@
+"""Kinematic viscosity against temperature: ASTM D341 (Walther form) and the pump's window.
+
+ASTM D341 draws an oil's viscosity-temperature line as a straight line on
+log(log(Z)) against log(T), where T is the absolute temperature and Z is the
+kinematic viscosity with a small correction that matters only below about 2 cSt:
+
+    log10(log10(Z)) = A - B * log10(T / K)
+    Z = v + 0.7 + exp(-1.47 - 1.84 v - 0.51 v^2)                (simplified form)
+
+The standard (D341-09 and later) gives the full correction
+
+    Z = v + 0.7 + C - D + E - F + G - H
+    C = exp(-1.14883 - 2.65868 v)      D = exp(-0.0038138 - 12.5645 v)
+    E = exp(5.46491 - 37.6289 v)       F = exp(13.0458 - 74.6851 v)
+    G = exp(37.4619 - 192.643 v)       H = exp(80.4945 - 400.468 v)
+
+and an approximate inverse; here the inverse is solved exactly by Newton's
+method, started from the standard's approximation.
+
+Source: ASTM D341-09 (reapproved 2015), "Viscosity-Temperature Charts for Liquid
+Petroleum Products", equations 1 to 4 (coefficients from memory of the standard).
+"""
+
+from __future__ import annotations
+
+import math
+
+from .errors import InputError
+from .registry import Field, Output, tool
+from .result import COMMON_PRACTICE, Q, Result
+
+KELVIN = 273.15
+
+# D341 covers about 0.21 cSt to 1e6 cSt with the full Z correction.
+KV_MIN_CST = 0.21
+KV_MAX_CST = 1.0e6
+
+
+def walther_z(kv_cst: float) -> float:
+    """ASTM D341 corrected viscosity Z for a kinematic viscosity [cSt].
+
+    >>> round(walther_z(46.0), 6)
+    46.7
+    >>> round(walther_z(1.0), 4)
+    1.7222
+    """
+    v = kv_cst
+    return (v + 0.7
+            + math.exp(-1.14883 - 2.65868 * v)
+            - math.exp(-0.0038138 - 12.5645 * v)
+            + math.exp(5.46491 - 37.6289 * v)
+            - math.exp(13.0458 - 74.6851 * v)
+            + math.exp(37.4619 - 192.643 * v)
+            - math.exp(80.4945 - 400.468 * v))
+
+
+def _dz_dv(v: float) -> float:
+    return (1.0
+            - 2.65868 * math.exp(-1.14883 - 2.65868 * v)
+            + 12.5645 * math.exp(-0.0038138 - 12.5645 * v)
+            - 37.6289 * math.exp(5.46491 - 37.6289 * v)
+            + 74.6851 * math.exp(13.0458 - 74.6851 * v)
+            - 192.643 * math.exp(37.4619 - 192.643 * v)
+            + 400.468 * math.exp(80.4945 - 400.468 * v))
+
+
+def kv_from_z(z: float) -> float:
+    """Kinematic viscosity [cSt] whose D341 Z is `z`: the exact inverse of `walther_z`.
+
+    Starts from the standard's approximation
+    v = (Z - 0.7) - exp(-0.7487 - 3.295 (Z - 0.7) + 0.6119 (Z - 0.7)^2 - 0.3193 (Z - 0.7)^3)
+    and refines by Newton's method to machine precision.
+
+    >>> round(kv_from_z(walther_z(3.3)), 12)
+    3.3
+    """
+    zz = z - 0.7
+    v = zz - math.exp(-0.7487 - 3.295 * zz + 0.6119 * zz ** 2 - 0.3193 * zz ** 3) if zz < 3 else zz
+    v = max(v, KV_MIN_CST)
+    for _ in range(50):
+        step = (walther_z(v) - z) / _dz_dv(v)
+        v -= step
+        if abs(step) <= 1e-13 * max(1.0, v):
+            break
+    return v
+
+
+def walther_fit(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: float) -> tuple[float, float]:
+    """Constants (A, B) of the D341 line through two measured points.
+
+    Viscosity must fall as temperature rises: the warmer point must be the thinner.
+
+    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
+    >>> round(a, 4), round(b, 4)
+    (9.418, 3.6844)
+    """
+    t1, t2 = temp1_c + KELVIN, temp2_c + KELVIN
+    y1 = math.log10(math.log10(walther_z(kv1_cst)))
+    y2 = math.log10(math.log10(walther_z(kv2_cst)))
+    b = (y1 - y2) / (math.log10(t2) - math.log10(t1))
+    a = y1 + b * math.log10(t1)
+    return a, b
+
+
+def walther_viscosity(temp_c: float, a: float, b: float) -> float:
+    """Kinematic viscosity [cSt] at `temp_c` [degC] on the D341 line (A, B).
+
+    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
+    >>> round(walther_viscosity(60.0, a, b), 2)
+    20.62
+    """
+    return kv_from_z(10.0 ** (10.0 ** (a - b * math.log10(temp_c + KELVIN))))
+
+
+def walther_temperature(kv_cst: float, a: float, b: float) -> float:
+    """Temperature [degC] at which the D341 line (A, B) has viscosity `kv_cst` [cSt].
+
+    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
+    >>> round(walther_temperature(20.62, a, b), 1)
+    60.0
+    """
+    log_t = (a - math.log10(math.log10(walther_z(kv_cst)))) / b
+    return 10.0 ** log_t - KELVIN
+
+
+def check_two_points(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: float,
+                     fields: tuple[str, str, str, str] = ("temp1", "kv40", "temp2", "kv100")) -> None:
+    """InputError unless the two readings make a D341 line: distinct, thinner when warmer."""
+    f_t1, f_kv1, f_t2, f_kv2 = fields
+    for key, kv in ((f_kv1, kv1_cst), (f_kv2, kv2_cst)):
+        if not KV_MIN_CST <= kv <= KV_MAX_CST:
+            raise InputError(key, f"must be between {KV_MIN_CST} and {KV_MAX_CST:g} cSt (ASTM D341 range)")
+    if abs(temp2_c - temp1_c) < 1.0:
+        raise InputError(f_t2, "the two readings must be at least 1 °C apart")
+    warm_kv, cold_kv = (kv2_cst, kv1_cst) if temp2_c > temp1_c else (kv1_cst, kv2_cst)
+    warm_key = f_kv2 if temp2_c > temp1_c else f_kv1
+    if warm_kv >= cold_kv:
+        raise InputError(warm_key, "the reading at the higher temperature must be the lower "
+                                   "viscosity (an oil thins as it warms)")
+
+
+# Pump viscosity windows [cSt]: (max at start-up, top of optimum band, bottom of optimum
+# band, minimum). Common practice: typical of pump makers' data sheets, from memory.
+# Always prefer the figures of the pump's own data sheet.
+PUMP_WINDOWS = {
+    "vane": (700.0, 40.0, 16.0, 10.0),
+    "gear": (1000.0, 100.0, 16.0, 10.0),
+    "piston": (1000.0, 36.0, 16.0, 10.0),
+}
+PUMP_CHOICES = (("vane", "Vane pump"), ("gear", "Gear pump"), ("piston", "Axial piston pump"))
+
+_KV = "kinematic_viscosity"
+_T = "temperature"
+
+
+def pump_window(pump: str, start_max: float | None = None, opt_high: float | None = None,
+                opt_low: float | None = None, minimum: float | None = None) -> tuple[float, float, float, float]:
+    """The pump type's window with any entered limit in its place, checked for order."""
+    preset = PUMP_WINDOWS[pump]
+    window = tuple(p if v is None else v for p, v in zip(preset, (start_max, opt_high, opt_low, minimum)))
+    names = ("visc_start", "visc_opt_high", "visc_opt_low", "visc_min")
+    for (key, upper), lower in zip(zip(names, window), window[1:]):
+        if upper <= lower:
+            raise InputError(key, "the pump's limits must fall in order: start-up maximum > top of "
+                                  "optimum band > bottom of optimum band > minimum")
+    return window
+
+
+def window_verdict(result: Result, kv: float, temp_c: float,
+                   window: tuple[float, float, float, float], crossings: dict) -> None:
+    """ok / watch / act for the oil's viscosity `kv` at the operating temperature."""
+    start_max, opt_high, opt_low, minimum = window
+    at = (Q(temp_c, _T), Q(kv, _KV))
+    if kv > start_max:
+        result.add("act", COMMON_PRACTICE,
+                   "At {0} the oil is {1}, thicker than the pump's start-up limit of {2}: do not "
+                   "start under load; warm the oil above {3} first, or use a lighter grade.",
+                   *at, Q(start_max, _KV), Q(crossings["t_start"], _T))
+    elif kv > opt_high:
+        result.add("watch", COMMON_PRACTICE,
+                   "At {0} the oil is {1}, thicker than the optimum band ({2} to {3}): fine for "
+                   "warm-up at low load; run at full load only above {4}.",
+                   *at, Q(opt_low, _KV), Q(opt_high, _KV), Q(crossings["t_opt_cold"], _T))
+    elif kv >= opt_low:
+        result.add("ok", COMMON_PRACTICE,
+                   "At {0} the oil is {1}, inside the pump's optimum band ({2} to {3}).",
+                   *at, Q(opt_low, _KV), Q(opt_high, _KV))
+    elif kv >= minimum:
+        result.add("watch", COMMON_PRACTICE,
+                   "At {0} the oil is {1}, thinner than the optimum band: leakage and wear rise. "
+                   "Keep the oil below {2} (check the cooler) or use a heavier grade.",
+                   *at, Q(crossings["t_opt_hot"], _T))
+    else:
+        result.add("act", COMMON_PRACTICE,
+                   "At {0} the oil is {1}, below the pump's minimum of {2}: the film is too thin "
+                   "and the pump will wear. Bring the oil below {3} or use a heavier grade.",
+                   *at, Q(minimum, _KV), Q(crossings["t_min"], _T))
+
+
+def _kv_field(key: str, label: str, default: float, help_text: str) -> Field:
+    return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text)
+
+
+def _limit_field(key: str, label: str) -> Field:
+    return Field(key, label, _KV, None, min=1.0, max=1.0e5, optional=True,
+                 help="Leave blank to use the pump type's typical figure; enter the pump "
+                      "maker's figure when you have it.")
+
+
+@tool(
+    "viscosity-at-temperature",
+    title="Viscosity at temperature",
+    summary="The oil's viscosity at the working temperature from two lab readings, and the "
+            "temperatures at which it leaves the pump's window.",
+    topic="Viscosity",
+    inputs=(
+        _kv_field("kv40", "Viscosity, reading 1", 46.0, "Usually the KV at 40 °C from the "
+                  "data sheet or lab report."),
+        Field("temp1", "Temperature of reading 1", _T, 40.0, min=-60.0, max=250.0),
+        _kv_field("kv100", "Viscosity, reading 2", 6.8, "Usually the KV at 100 °C."),
+        Field("temp2", "Temperature of reading 2", _T, 100.0, min=-60.0, max=250.0),
+        Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0,
+              help="Measured in the tank or at the pump inlet."),
+        Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES),
+        _limit_field("visc_start", "Max viscosity at start-up"),
+        _limit_field("visc_opt_high", "Optimum band, top"),
+        _limit_field("visc_opt_low", "Optimum band, bottom"),
+        _limit_field("visc_min", "Minimum viscosity"),
+    ),
+    outputs=(
+        Output("kv", "Viscosity at oil temperature", _KV),
+        Output("t_start", "Coldest start-up temperature", _T,
+               "Below this the oil is thicker than the pump's start-up limit."),
+        Output("t_opt_cold", "Optimum band begins at", _T),
+        Output("t_opt_hot", "Optimum band ends at", _T),
+        Output("t_min", "Hottest safe temperature", _T,
+               "Above this the oil is thinner than the pump's minimum."),
+        Output("window", "Pump window used", "text"),
+    ),
+)
+def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: float, temp: float,
+                             pump: str, visc_start: float | None = None,
+                             visc_opt_high: float | None = None, visc_opt_low: float | None = None,
+                             visc_min: float | None = None) -> Result:
+    """Viscosity at `temp` on the D341 line through two readings, against the pump's window."""
+    check_two_points(temp1, kv40, temp2, kv100)
+    window = pump_window(pump, visc_start, visc_opt_high, visc_opt_low, visc_min)
+    a, b = walther_fit(temp1, kv40, temp2, kv100)
+    kv = walther_viscosity(temp, a, b)
+    start_max, opt_high, opt_low, minimum = window
+    crossings = {
+        "t_start": walther_temperature(start_max, a, b),
+        "t_opt_cold": walther_temperature(opt_high, a, b),
+        "t_opt_hot": walther_temperature(opt_low, a, b),
+        "t_min": walther_temperature(minimum, a, b),
+    }
+    result = Result(values={"kv": kv, **crossings,
+                            "window": f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt"})
+    window_verdict(result, kv, temp, window, crossings)
+    if not (min(temp1, temp2) - 30.0 <= temp <= max(temp1, temp2) + 30.0):
+        result.note("{0} is far outside the two readings ({1} and {2}): the D341 line is an "
+                    "extrapolation there; confirm with a reading nearer that temperature.",
+                    Q(temp, _T), Q(temp1, _T), Q(temp2, _T))
+    if any(v is None for v in (visc_start, visc_opt_high, visc_opt_low, visc_min)):
+        result.note("Blank pump limits use typical figures for the pump type; the pump maker's "
+                    "data sheet always takes precedence.")
+    result.sources += ["ASTM D341 (Walther form with Z correction)",
+                       "Pump window: common practice, typical of makers' data sheets"]
+    return result
