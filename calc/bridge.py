@@ -2,7 +2,7 @@
 
 A request is ``{"tool": ID, "inputs": {key: typed text or number}, "units": "metric"|"us"}``.
 The answer is ``{"tool", "ok": true, "values", "units", "text", "verdicts", "level",
-"notes", "sources", "charts"}``, or ``{"tool", "ok": false, "errors": [{"field", "message"}]}``.
+"notes", "sources", "charts", "ranked"}``, or ``{"tool", "ok": false, "errors": [{"field", "message"}]}``.
 
 >>> answer = run("viscosity-at-temperature", {"kv40": "46", "kv100": "6,8", "temp": 60})
 >>> answer["ok"], answer["text"]["kv"]
@@ -63,6 +63,8 @@ def present(found: registry.Tool, result: Result, system: str) -> dict:
         "notes": [n.render(show) for n in result.notes],
         "sources": list(result.sources),
         "charts": dict(result.charts),
+        "ranked": [{"key": c.key, "title": c.title, "score": c.score,
+                    "reasons": [r.render(show) for r in c.reasons]} for c in result.ranked],
     }
 
 

@@ -34,7 +34,8 @@ ABSOLUTE_ZERO_C = -273.15
 class Field:
     """One input of a tool.
 
-    quantity : a key of `units.QUANTITIES`, or "choice" for a pick from `choices`
+    quantity : a key of `units.QUANTITIES`, "choice" for a pick from `choices`, or
+        "flag" for a tick box (reaches the function as True / False)
     default : what the form starts with, metric; None with ``optional`` means blank
     min, max : the allowed range, metric, inclusive
     choices : (value, label) pairs of a choice field
@@ -53,10 +54,16 @@ class Field:
 
     @property
     def is_choice(self) -> bool:
-        return self.quantity == "choice"
+        return self.quantity in ("choice", "flag")
+
+    @property
+    def is_flag(self) -> bool:
+        return self.quantity == "flag"
 
     def parse(self, raw: object, system: str) -> float | str | None:
         """The metric value of what was typed, or InputError naming this field."""
+        if self.is_flag:
+            return _parse_flag(raw, self.key)
         if raw is None or (isinstance(raw, str) and not raw.strip()):
             if self.optional:
                 return None
@@ -93,6 +100,10 @@ class Field:
         """This field for the catalogue, in `system` units."""
         convert = (lambda v: v) if self.is_choice else (
             lambda v: None if v is None else units.from_metric(v, self.quantity, system))
+        if self.is_flag:
+            return {"key": self.key, "label": self.label, "quantity": "flag", "unit": "",
+                    "default": bool(self.default), "min": None, "max": None, "help": self.help,
+                    "choices": [], "optional": True}
         return {
             "key": self.key,
             "label": self.label,
@@ -106,6 +117,21 @@ class Field:
             "choices": [list(c) for c in self.choices],
             "optional": self.optional,
         }
+
+
+_TRUE = ("1", "true", "yes", "on", "y")
+_FALSE = ("", "0", "false", "no", "off", "n")
+
+
+def _parse_flag(raw: object, key: str) -> bool:
+    if raw is None or isinstance(raw, bool):
+        return bool(raw)
+    word = str(raw).strip().lower()
+    if word in _TRUE:
+        return True
+    if word in _FALSE:
+        return False
+    raise InputError(key, f"is a tick box: yes or no, not {str(raw).strip()!r}")
 
 
 @dataclass(frozen=True)

@@ -57,6 +57,16 @@ def verdict(level: str, basis: str, template: str, *args: Q) -> Verdict:
     return Verdict(level, Text(template, tuple(args)), basis)
 
 
+@dataclass(frozen=True)
+class Cause:
+    """One likely cause in a troubleshooting ranking, with the reasons for its rank."""
+
+    key: str
+    title: str
+    score: float
+    reasons: tuple[Text, ...] = ()
+
+
 @dataclass
 class Result:
     """A tool's answer, all in calc's metric units."""
@@ -66,6 +76,7 @@ class Result:
     notes: list[Text] = field(default_factory=list)
     sources: list[str] = field(default_factory=list)
     charts: dict[str, str] = field(default_factory=dict)
+    ranked: list[Cause] = field(default_factory=list)  # most likely first
 
     def note(self, template: str, *args: Q) -> None:
         self.notes.append(Text(template, tuple(args)))

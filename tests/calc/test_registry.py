@@ -38,7 +38,9 @@ def test_declaration_is_complete(tool_id):
     assert found.title and found.summary and found.topic
     for f in found.inputs:
         assert f.label
-        if f.is_choice:
+        if f.is_flag:
+            assert f.default in (None, False, True)
+        elif f.is_choice:
             assert f.choices and (f.default in [c[0] for c in f.choices])
         else:
             units.quantity(f.quantity)  # a known quantity

@@ -22,6 +22,8 @@ typed_values = st.one_of(
 
 def _inputs_strategy(found):
     def value_for(f):
+        if f.is_flag:
+            return st.one_of(st.booleans(), st.sampled_from(["yes", "no", "on", ""]), st.text(max_size=3))
         if f.is_choice:
             return st.one_of(st.sampled_from([c[0] for c in f.choices]), st.text(max_size=4))
         if f.min is not None and f.max is not None:
