@@ -25,6 +25,16 @@ from .result import Result
 # Topic modules, in the order the page lists them. Importing one registers its tools.
 TOPIC_MODULES = (
     "calc.viscosity",
+    "calc.foam",
+    "calc.troubleshoot_aeration",
+    "calc.vi",
+    "calc.water",
+    "calc.drying",
+    "calc.tank",
+    "calc.blend",
+    "calc.pressure",
+    "calc.lines",
+    "calc.suction",
 )
 
 ABSOLUTE_ZERO_C = -273.15
