@@ -199,6 +199,8 @@ def format_number(value: float, digits: int = 3) -> str:
     if value == 0 or not math.isfinite(value):
         return "0" if value == 0 else str(value)
     magnitude = math.floor(math.log10(abs(value)))
+    if magnitude >= 15:  # round() overflows near the float limit; such values are only echoed back
+        return f"{value:.{digits}g}"
     decimals = digits - 1 - magnitude
     if decimals > 0:
         return f"{value:.{decimals}f}"
