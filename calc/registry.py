@@ -33,8 +33,13 @@ TOPIC_MODULES = (
     "calc.tank",
     "calc.blend",
     "calc.pressure",
+    "calc.convert",
     "calc.lines",
     "calc.suction",
+    "calc.ageing",
+    "calc.condition",
+    "calc.cleanliness",
+    "calc.air",
 )
 
 ABSOLUTE_ZERO_C = -273.15
