@@ -1,0 +1,109 @@
+"""Ranking the likely causes of a fault: the scoring shared by every troubleshooting checklist.
+
+Each checklist lists its causes in a fixed order, the order of the sections of
+its printed page (site_src/checklists/<name>.md). Every symptom ticked and every
+reading entered adds points to the causes it points to, and records why:
+
+    STRONG   = 3   a reading beyond its limit, or a symptom that points to one cause
+    MODERATE = 2   a symptom that points mainly to this cause
+    WEAK     = 1   a symptom shared by several causes
+    AGAINST  = -2  a reading inside its limit that speaks against this cause
+
+A cause's score is the plain sum of its points. Causes are ranked by score,
+highest first; equal scores keep the checklist's own order (quick, external
+checks first). The weights are common practice for a first look at the machine,
+not a diagnosis: they say where to start.
+
+>>> board = Scoreboard((("a", "First cause"), ("b", "Second cause")))
+>>> board.add("b", STRONG, "reading over its limit")
+>>> [c.key for c in board.ranked()]
+['b', 'a']
+"""
+
+from __future__ import annotations
+
+from .result import COMMON_PRACTICE, Cause, Q, Result, Text, text
+
+STRONG = 3.0
+MODERATE = 2.0
+WEAK = 1.0
+AGAINST = -2.0
+
+TOPIC = "Troubleshooting"
+BASIS = "weighted scoring of symptoms and readings, common practice"
+
+
+class Scoreboard:
+    """Points and reasons per cause of one checklist, in the checklist's order."""
+
+    def __init__(self, causes: tuple[tuple[str, str], ...]):
+        self.causes = causes
+        self.points = {key: 0.0 for key, _ in causes}
+        self.reasons: dict[str, list[Text]] = {key: [] for key, _ in causes}
+
+    def add(self, key: str, points: float, template: str, *args: Q) -> None:
+        """Give `points` to cause `key` for the reason `template` (with quantities)."""
+        if key not in self.points:
+            raise KeyError(f"no cause {key!r} in this checklist")
+        self.points[key] += points
+        self.reasons[key].append(text(template, *args))
+
+    def add_each(self, keys: tuple[str, ...], points: float, template: str, *args: Q) -> None:
+        for key in keys:
+            self.add(key, points, template, *args)
+
+    def ranked(self) -> list[Cause]:
+        """All causes, most likely first; ties keep the checklist's order."""
+        order = {key: i for i, (key, _) in enumerate(self.causes)}
+        causes = [Cause(key, title, self.points[key], tuple(self.reasons[key]))
+                  for key, title in self.causes]
+        return sorted(causes, key=lambda c: (-c.score, order[c.key]))
+
+
+def checklist_result(board: Scoreboard, readings: int, caution: str) -> Result:
+    """The checklist's answer: ranked causes, the top one, and an overall verdict.
+
+    `readings` counts the symptoms ticked and readings entered; `caution` is the
+    list's own safety sentence, always shown.
+
+    >>> board = Scoreboard((("a", "First cause"), ("b", "Second cause")))
+    >>> board.add("b", WEAK, "noise at the pump")
+    >>> r = checklist_result(board, 1, "Lock out first.")
+    >>> r.values["top_cause"], r.values["causes_flagged"]
+    ('Second cause', 1.0)
+    """
+    ranked = board.ranked()
+    flagged = [c for c in ranked if c.score > 0]
+    top = ranked[0]
+    result = Result(values={"top_cause": top.title if flagged else "none flagged yet",
+                            "causes_flagged": float(len(flagged))}, ranked=ranked)
+    if not readings:
+        result.add("ok", COMMON_PRACTICE,
+                   "Nothing ticked or entered yet: the causes stand in the order to check them, "
+                   "quick outside checks first.")
+    elif not flagged:
+        result.add("ok", BASIS,
+                   "What you entered points to none of the listed causes above the others: "
+                   "work through the list in order.")
+    else:
+        runner_up = ranked[1].score if len(ranked) > 1 else 0.0
+        if top.score - runner_up >= STRONG:
+            sentence = f"Start with: {top.title}; it stands well clear of the other causes."
+        else:
+            sentence = f"Start with: {top.title}; then the next causes in the list, which score close."
+        result.add("watch", BASIS, sentence)
+    result.note(caution)
+    result.note("The ranking says where to start, not what is wrong: confirm each cause with its "
+                "checks, and follow the equipment maker's manual, local codes and licensed "
+                "practice.")
+    result.sources.append("Ranking: " + BASIS)
+    return result
+
+
+def count_entered(*values) -> int:
+    """How many symptoms are ticked and readings entered (None and False do not count).
+
+    >>> count_entered(True, False, None, 0.0, 12.5)
+    3
+    """
+    return sum(1 for v in values if v is not None and v is not False)

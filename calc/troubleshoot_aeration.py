@@ -1,0 +1,191 @@
+"""Troubleshooting checklist: aeration and foam.
+
+Symptoms at the machine and the oil's lab readings (foam sequence I, air-release
+time, the tank's dwell time) ranked over the causes of site_src/checklists/aeration.md.
+The oil's readings are judged by calc.foam against the limits of its grade.
+"""
+
+from __future__ import annotations
+
+from . import foam
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
+                         count_entered)
+from .errors import InputError
+from .registry import Field, Output, tool
+from .result import Q
+
+# In the order of the printed page: quick outside checks first.
+CAUSES = (
+    ("suction-leak", "Air drawn in on the suction side"),
+    ("return-line", "Return line ending above the oil level"),
+    ("tank-dwell", "Oil level low or too little time in the tank"),
+    ("antifoam-overdose", "Too much antifoam slowing the air release"),
+    ("contaminated-oil", "Oil contaminated with grease, engine oil, cleaner or water"),
+    ("wrong-topup", "Wrong or mixed oil topped up"),
+    ("antifoam-lost", "Antifoam used up or filtered out"),
+)
+MECHANICAL = ("suction-leak", "return-line", "tank-dwell")
+
+# Common practice: an industrial tank holds 3 to 5 minutes of pump flow.
+MIN_DWELL_MIN = 3.0
+
+CAUTION = ("Stop the machine, lock it out and relieve pressure (accumulators, raised loads) "
+           "before opening any fitting; never feel for leaks with a hand: oil under pressure "
+           "injects through skin. Oil and pump may be hot.")
+
+
+def dwell_time_min(oil_volume_l: float, pump_flow_lpm: float) -> float:
+    """Average time the oil spends in the tank, t = V / Q [min].
+
+    oil_volume_l : oil in the tank at its working level [L]
+    pump_flow_lpm : pump flow [L/min]
+
+    >>> dwell_time_min(300.0, 100.0)
+    3.0
+
+    Source: definition of residence time (volume over flow).
+    """
+    return oil_volume_l / pump_flow_lpm
+
+
+def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) -> None:
+    limits = foam.grade_limits(grade)
+    ar_limit = limits.air_release_min
+    foam_known = tendency is not None or stability is not None
+    foam_stable = stability is not None and stability > limits.stability
+    foam_tall = tendency is not None and tendency > limits.tendency_24
+    if foam_stable:
+        board.add("contaminated-oil", STRONG,
+                  "sequence I: {0} of foam still standing after settling, against {1} allowed",
+                  Q(stability, "volume_ml"), Q(limits.stability, "volume_ml"))
+    if foam_tall:
+        if not foam_stable:
+            board.add("antifoam-lost", STRONG,
+                      "sequence I: foam tendency {0} against {1} allowed, and the foam breaks",
+                      Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+        board.add("wrong-topup", WEAK, "sequence I: foam tendency {0} against {1} allowed",
+                  Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+    foam_passes = foam_known and not (foam_stable or foam_tall)
+    if foam_passes:
+        board.add_each(("contaminated-oil", "antifoam-lost"), AGAINST,
+                       f"sequence I foam within the limits for {grade}")
+    if air_release is None:
+        return
+    args = (Q(air_release, "minutes"), Q(ar_limit, "minutes"))
+    if air_release > ar_limit:
+        reason = f"air release {{0}} against {{1}} allowed for {grade}"
+        board.add_each(("contaminated-oil", "antifoam-overdose"), MODERATE, reason, *args)
+        board.add("wrong-topup", WEAK, reason, *args)
+        if foam_passes:
+            board.add("antifoam-overdose", STRONG,
+                      "foam passes while the air release is long: typical of too much antifoam")
+    else:
+        board.add("antifoam-overdose", AGAINST,
+                  f"air release {{0}}, within the {{1}} allowed for {grade}", *args)
+        if foam_passes:
+            board.add_each(MECHANICAL, MODERATE, "the oil passes its foam and air-release tests, "
+                                                 "so the air comes from the machine")
+
+
+def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flow) -> None:
+    if oil_volume is None or pump_flow is None:
+        return
+    dwell = dwell_time_min(oil_volume, pump_flow)
+    needed = air_release if air_release is not None else foam.grade_limits(grade).air_release_min
+    if dwell < needed:
+        board.add("tank-dwell", STRONG,
+                  "the oil stays {0} in the tank, less than the {1} it needs to release air",
+                  Q(dwell, "minutes"), Q(needed, "minutes"))
+    elif dwell < MIN_DWELL_MIN:
+        board.add("tank-dwell", MODERATE,
+                  "the tank holds {0} of pump flow, less than the {1} common practice asks",
+                  Q(dwell, "minutes"), Q(MIN_DWELL_MIN, "minutes"))
+
+
+def _flag(key: str, label: str, help_text: str = "") -> Field:
+    return Field(key, label, "flag", False, help=help_text)
+
+
+@tool(
+    "checklist-aeration",
+    title="Aeration and foam: what to check first",
+    summary="Tick what you see and enter the readings you have; the causes of air in the oil "
+            "are ranked, each with its checks and cautions.",
+    topic=TOPIC,
+    inputs=(
+        _flag("foam_on_surface", "Foam on the oil in the tank"),
+        _flag("milky_clears", "Oil cloudy, clears from the bottom up when left standing",
+              "Fine air bubbles rise and clear from the bottom; water clears from the top or "
+              "not at all."),
+        _flag("pump_noise", "Pump noisy (rattle, like gravel)"),
+        _flag("spongy", "Actuators spongy or jerky"),
+        _flag("worse_cold", "Worse with cold oil"),
+        _flag("after_suction_work", "Started after work on the pump or suction line"),
+        _flag("return_splashing", "Return flow splashes or is visible at the surface"),
+        _flag("level_low", "Oil level low in the sight glass"),
+        _flag("after_topup", "Started after a top-up or oil change"),
+        Field("grade", "Oil grade", "choice", "VG 46", choices=foam.GRADE_CHOICES),
+        Field("air_release", "Air-release time at 50 °C (lab)", "minutes", None, min=0.0,
+              max=120.0, optional=True),
+        Field("seq1_tendency", "Foam sequence I: tendency (lab)", "volume_ml", None, min=0.0,
+              max=2000.0, optional=True),
+        Field("seq1_stability", "Foam sequence I: stability (lab)", "volume_ml", None, min=0.0,
+              max=2000.0, optional=True),
+        Field("oil_volume", "Oil in the tank at working level", "volume", None, min=1.0,
+              max=1.0e6, optional=True, help="From the tank-volume tool."),
+        Field("pump_flow", "Pump flow", "flow", None, min=0.1, max=1.0e5, optional=True),
+    ),
+    outputs=(
+        Output("top_cause", "Most likely cause", "text"),
+        Output("causes_flagged", "Causes with points", "count"),
+        Output("dwell_time", "Oil's time in the tank", "minutes"),
+    ),
+)
+def checklist_aeration(foam_on_surface=False, milky_clears=False, pump_noise=False, spongy=False,
+                       worse_cold=False, after_suction_work=False, return_splashing=False,
+                       level_low=False, after_topup=False, grade="VG 46", air_release=None,
+                       seq1_tendency=None, seq1_stability=None, oil_volume=None, pump_flow=None):
+    """Rank the causes of air in the oil from symptoms and readings."""
+    if (oil_volume is None) != (pump_flow is None):
+        missing = "pump_flow" if pump_flow is None else "oil_volume"
+        raise InputError(missing, "enter both the oil volume and the pump flow for the dwell "
+                                  "time, or neither")
+    board = Scoreboard(CAUSES)
+    if foam_on_surface:
+        board.add_each(("suction-leak", "return-line", "tank-dwell", "contaminated-oil",
+                        "antifoam-lost"), WEAK, "foam on the oil in the tank")
+    if milky_clears:
+        board.add("suction-leak", MODERATE, "cloudy oil that clears from the bottom: fine air")
+        board.add_each(("tank-dwell", "antifoam-overdose"), WEAK,
+                       "cloudy oil that clears from the bottom: fine air")
+    if pump_noise:
+        board.add("suction-leak", MODERATE, "pump rattles: air or vapour at the inlet")
+        board.add("tank-dwell", WEAK, "pump rattles: air or vapour at the inlet")
+    if spongy:
+        board.add_each(("suction-leak", "antifoam-overdose", "tank-dwell"), WEAK,
+                       "spongy actuators: air carried into the circuit")
+    if worse_cold:
+        board.add("suction-leak", WEAK, "worse when cold: the inlet vacuum is deepest with thick oil")
+        board.add("antifoam-overdose", WEAK, "worse when cold: air leaves thick oil slowly")
+    if after_suction_work:
+        board.add("suction-leak", STRONG, "started after work on the pump or suction line")
+    if return_splashing:
+        board.add("return-line", STRONG, "return flow splashes at the surface")
+    if level_low:
+        board.add("tank-dwell", STRONG, "low oil level: less time in the tank and a vortex at "
+                                        "the suction")
+        board.add("suction-leak", WEAK, "low oil level can uncover the suction")
+    if after_topup:
+        board.add("wrong-topup", STRONG, "started after a top-up or oil change")
+        board.add("contaminated-oil", WEAK, "started after a top-up or oil change")
+    _score_oil(board, grade, air_release, seq1_tendency, seq1_stability)
+    _score_tank(board, grade, air_release, oil_volume, pump_flow)
+    entered = count_entered(foam_on_surface, milky_clears, pump_noise, spongy, worse_cold,
+                            after_suction_work, return_splashing, level_low, after_topup,
+                            air_release, seq1_tendency, seq1_stability, oil_volume)
+    result = checklist_result(board, entered, CAUTION)
+    result.values["dwell_time"] = (None if oil_volume is None
+                                   else dwell_time_min(oil_volume, pump_flow))
+    result.sources += ["Oil limits: ISO 11158 HM / DIN 51524-2 HLP, from memory (calc.foam)",
+                       "Tank of 3 to 5 minutes of pump flow: common practice"]
+    return result
