@@ -31,6 +31,7 @@ TOPIC_MODULES = (
     "calc.water",
     "calc.drying",
     "calc.tank",
+    "calc.heat",
     "calc.blend",
     "calc.pressure",
     "calc.convert",
