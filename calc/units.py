@@ -90,6 +90,7 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("velocity", "m/s", "ft/s", _FOOT_IN_M),
     _quantity("power", "kW", "hp", _HP_IN_KW),
     _quantity("mass", "kg", "lb", _LB_IN_KG),
+    _quantity("density", "kg/m³", "lb/ft³", _LB_IN_KG / _FOOT_IN_M ** 3),  # NIST SP 811: 16.018 46 kg/m³
     _quantity("force", "kN", "lbf", _LBF_IN_KN),
     _quantity("heat_transfer", "W/(m²·K)"),
     _quantity("ppm", "ppm", digits=4),
