@@ -136,6 +136,7 @@ def _check_value(value: float, unit: str, temp_f: float) -> None:
     elif value < 0:
         raise InputError("value", f"a {kind} cannot be negative")
     elif unit in _SUS_TEMP_F:
+        temp_f = _SUS_TEMP_F[unit] or temp_f
         low, high = (saybolt_seconds(kv, temp_f) for kv in (SUS_KV_MIN_CST, SUS_KV_MAX_CST))
         if not low <= value <= high:
             raise InputError("value", f"ASTM D2161 covers {low:.1f} to {high:.4g} SUS at this "

@@ -64,6 +64,15 @@ def test_impossible_values_are_refused():
         assert err.value.field == "value"
 
 
+def test_lower_end_of_the_sus_scale_follows_the_chosen_temperature():
+    # The D2161 scale starts at 1.8 cSt (from memory): SUS(1.8) at 100 degF is accepted whatever
+    # the temperature field says; only "SUS at the temperature entered" uses that field.
+    lowest = saybolt_seconds(1.8, 100.0)
+    assert convert(lowest, "sus_100f", "cst", temp_c=150.0) == pytest.approx(1.8, rel=1e-10)
+    with pytest.raises(InputError):
+        convert(lowest, "sus_at_temp", "cst", temp_c=150.0)
+
+
 def test_negative_gauge_pressure_is_allowed():
     # A vacuum at a pump inlet reads below zero gauge.
     assert convert(-0.3, "bar", "psi") == pytest.approx(-0.3 / 0.0689475729)
