@@ -25,9 +25,12 @@ from __future__ import annotations
 
 import math
 
+from . import chart
 from .errors import InputError
+from .iso3448 import GRADE_CHOICES, grade_midpoint
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
+from .vi import kv100_from_vi
 
 KELVIN = 273.15
 
@@ -148,6 +151,7 @@ PUMP_WINDOWS = {
     "piston": (1000.0, 36.0, 16.0, 10.0),
 }
 PUMP_CHOICES = (("vane", "Vane pump"), ("gear", "Gear pump"), ("piston", "Axial piston pump"))
+OIL_FROM = (("readings", "Two viscosity readings"), ("grade", "ISO VG grade and VI"))
 
 _KV = "kinematic_viscosity"
 _T = "temperature"
@@ -197,6 +201,86 @@ def window_verdict(result: Result, kv: float, temp_c: float,
                    *at, Q(minimum, _KV), Q(crossings["t_min"], _T))
 
 
+def oil_from_grade(grade: str, vi: float) -> tuple[float, float]:
+    """(KV40, KV100) [cSt] of an oil of ISO VG `grade` (its mid-point) and viscosity index `vi`.
+
+    KV100 by the ASTM D2270 inverse (calc.vi.kv100_from_vi).
+
+    >>> [round(v, 2) for v in oil_from_grade("VG 46", 100.0)]
+    [46.0, 6.76]
+    """
+    kv40 = grade_midpoint(grade)
+    try:
+        return kv40, kv100_from_vi(kv40, vi)
+    except InputError as err:
+        raise InputError("vi", f"{grade} with VI {vi:g}: {err.message}") from None
+
+
+CHART_W, CHART_H = 400.0, 330.0
+_CHART_BOX = (52.0, 34.0, 334.0, 236.0)  # left, top, width, height of the plot, viewBox units
+_T_LOW, _T_HIGH = -60.0, 250.0  # the tool's own temperature range
+
+
+def _d341_y(kv_cst: float) -> float:
+    return chart.log_log(walther_z(kv_cst))
+
+
+def _d341_x(temp_c: float) -> float:
+    return math.log10(temp_c + KELVIN)
+
+
+def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
+               temp_c: float, kv_cst: float) -> str:
+    """SVG of the oil's D341 line, the pump's window and the operating point.
+
+    Axes as on an ASTM D341 chart: log log Z up, log absolute temperature across,
+    labelled in °C and cSt.
+    """
+    start_max, opt_high, opt_low, minimum = window
+    kv_low = max(0.3, min(minimum, kv_cst) / 1.6)
+    kv_high = max(start_max, kv_cst) * 2.0
+    edge_cold = walther_temperature(kv_high, a, b)
+    edge_hot = walther_temperature(kv_low, a, b)
+    t_low = max(_T_LOW, min(edge_cold, temp_c - 5.0))
+    t_high = min(_T_HIGH, max(edge_hot, temp_c + 5.0))
+    ax = chart.Axes((t_low, t_high), (kv_low, kv_high), _CHART_BOX, _d341_x, _d341_y)
+    left, top, width, _ = _CHART_BOX
+
+    line_from, line_to = max(t_low, edge_cold), min(t_high, edge_hot)
+    line = [ax.point(t, walther_viscosity(t, a, b))
+            for t in (line_from + (line_to - line_from) * k / 80 for k in range(81))]
+    px, py = ax.point(temp_c, kv_cst)
+    label_anchor = "end" if px > left + width * 0.6 else "start"
+    label_dx = -12 if label_anchor == "end" else 12
+    label_y = py - 10 if py - 10 > top + chart.TEXT_SIZE else py + 24  # stay inside the plot
+    body = [
+        chart.hband(ax, opt_low, opt_high, "band-optimum", "#d4e8d4"),
+        chart.frame(ax, chart.ticks_linear(t_low, t_high), chart.ticks_125(kv_low, kv_high),
+                    "Oil temperature, °C", "Viscosity, cSt (ASTM D341 scale)", chart.short),
+        chart.hline(ax, opt_high, "band-edge", "#2e6b2e", 1.5, "6 3"),
+        chart.hline(ax, opt_low, "band-edge", "#2e6b2e", 1.5, "6 3"),
+        chart.hline(ax, start_max, "limit limit-start", "#8b1a1a", 2.5, "12 5"),
+        chart.hline(ax, minimum, "limit limit-min", "#8b1a1a", 2.5, "3 4"),
+        chart.text(left + width - 4, ax.y(start_max) - 5, f"start-up max {start_max:g} cSt",
+                   "limit-label", anchor="end"),
+        chart.text(left + width - 4, ax.y(minimum) + 17, f"minimum {minimum:g} cSt",
+                   "limit-label", anchor="end"),
+        chart.text(left + 6, (ax.y(opt_high) + ax.y(opt_low)) / 2 + 5, "optimum band",
+                   "band-label", weight="bold", fill="#1f4d1f"),
+        chart.polyline(line, "oil-line", "#12357a", 4.0),
+        chart.marker(px, py, "operating-point"),
+        chart.text(px + label_dx, label_y, f"{temp_c:.0f} °C: {chart.short(kv_cst)} cSt",
+                   "point-label",
+                   anchor=label_anchor, weight="bold"),
+    ]
+    title = (f"Viscosity against temperature: {chart.short(kv_cst)} cSt at {temp_c:.0f} °C, "
+             f"pump window {start_max:g} / {opt_high:g} to {opt_low:g} / {minimum:g} cSt")
+    desc = ("The oil's line on ASTM D341 axes with the pump's optimum band shaded, the start-up "
+            "maximum as a long-dashed line, the minimum as a short-dashed line, and the "
+            "operating point marked with a ring.")
+    return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-d341")
+
+
 def _kv_field(key: str, label: str, default: float, help_text: str) -> Field:
     return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text)
 
@@ -214,11 +298,17 @@ def _limit_field(key: str, label: str) -> Field:
             "temperatures at which it leaves the pump's window.",
     topic="Viscosity",
     inputs=(
+        Field("oil_from", "Oil given by", "choice", "readings", choices=OIL_FROM),
         _kv_field("kv40", "Viscosity, reading 1", 46.0, "Usually the KV at 40 °C from the "
                   "data sheet or lab report."),
         Field("temp1", "Temperature of reading 1", _T, 40.0, min=-60.0, max=250.0),
         _kv_field("kv100", "Viscosity, reading 2", 6.8, "Usually the KV at 100 °C."),
         Field("temp2", "Temperature of reading 2", _T, 100.0, min=-60.0, max=250.0),
+        Field("grade", "ISO VG grade", "choice", "VG 46", choices=GRADE_CHOICES,
+              help="Used when the oil is given by grade and VI: its KV at 40 °C is the "
+                   "grade's mid-point."),
+        Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0,
+              help="Used with the grade; from the oil's data sheet."),
         Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0,
               help="Measured in the tank or at the pump inlet."),
         Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES),
@@ -236,13 +326,21 @@ def _limit_field(key: str, label: str) -> Field:
         Output("t_min", "Hottest safe temperature", _T,
                "Above this the oil is thinner than the pump's minimum."),
         Output("window", "Pump window used", "text"),
+        Output("kv40_used", "KV at 40 °C of the oil's line", _KV),
+        Output("kv100_used", "KV at 100 °C of the oil's line", _KV),
     ),
 )
 def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: float, temp: float,
                              pump: str, visc_start: float | None = None,
                              visc_opt_high: float | None = None, visc_opt_low: float | None = None,
-                             visc_min: float | None = None) -> Result:
-    """Viscosity at `temp` on the D341 line through two readings, against the pump's window."""
+                             visc_min: float | None = None, oil_from: str = "readings",
+                             grade: str = "VG 46", vi: float = 100.0) -> Result:
+    """Viscosity at `temp` on the D341 line of the oil, against the pump's window.
+
+    The oil is two readings (KV at temp1 and temp2) or an ISO VG grade and VI.
+    """
+    if oil_from == "grade":
+        (kv40, kv100), temp1, temp2 = oil_from_grade(grade, vi), 40.0, 100.0
     check_two_points(temp1, kv40, temp2, kv100)
     window = pump_window(pump, visc_start, visc_opt_high, visc_opt_low, visc_min)
     a, b = walther_fit(temp1, kv40, temp2, kv100)
@@ -255,7 +353,9 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
         "t_min": walther_temperature(minimum, a, b),
     }
     result = Result(values={"kv": kv, **crossings,
-                            "window": f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt"})
+                            "window": f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt",
+                            "kv40_used": walther_viscosity(40.0, a, b),
+                            "kv100_used": walther_viscosity(100.0, a, b)})
     window_verdict(result, kv, temp, window, crossings)
     if not (min(temp1, temp2) - 30.0 <= temp <= max(temp1, temp2) + 30.0):
         result.note("{0} is far outside the two readings ({1} and {2}): the D341 line is an "
@@ -264,6 +364,12 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
     if any(v is None for v in (visc_start, visc_opt_high, visc_opt_low, visc_min)):
         result.note("Blank pump limits use typical figures for the pump type; the pump maker's "
                     "data sheet always takes precedence.")
+    if oil_from == "grade":
+        result.note(f"The oil is taken at the mid-point of {grade}, {{0}} at {{1}}; a real "
+                    f"batch may be up to 10 % either side. Its KV100 of {{2}} follows from VI "
+                    f"{vi:g} (ASTM D2270).", Q(kv40, _KV), Q(40.0, _T), Q(kv100, _KV))
+        result.sources.append("ISO 3448 (grade mid-point); ASTM D2270 (KV100 from VI)")
+    result.charts["viscosity"] = d341_chart(a, b, window, temp, kv)
     result.sources += ["ASTM D341 (Walther form with Z correction)",
                        "Pump window: common practice, typical of makers' data sheets"]
     return result

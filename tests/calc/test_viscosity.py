@@ -85,3 +85,38 @@ def test_bridge_us_units_convert_at_the_edge():
     assert us["values"]["kv"] == pytest.approx(metric["values"]["kv"])
     assert us["units"]["t_min"] == "°F"
     assert us["values"]["t_min"] == pytest.approx(metric["values"]["t_min"] * 1.8 + 32)
+
+
+def test_oil_from_grade_and_vi_uses_the_d2270_inverse():
+    # ISO 3448: VG 46 mid-point 46 cSt; ASTM D2270: the line's KV100 gives back VI 100.
+    from calc.vi import viscosity_index
+    result = viscosity_at_temperature(0.0, 0.0, 0.0, 0.0, 60.0, "vane", oil_from="grade",
+                                      grade="VG 46", vi=100.0)
+    v = result.values
+    assert v["kv40_used"] == pytest.approx(46.0, rel=1e-12)
+    assert viscosity_index(v["kv40_used"], v["kv100_used"]) == pytest.approx(100.0, abs=1e-9)
+    # Same oil given as two readings gives the same answer.
+    same = viscosity_at_temperature(46.0, 40.0, v["kv100_used"], 100.0, 60.0, "vane")
+    assert same.values["kv"] == pytest.approx(v["kv"], rel=1e-12)
+
+
+def test_higher_vi_is_thicker_when_hot_and_thinner_when_cold():
+    # Definition of VI: at the same KV40, a higher VI oil thins less with temperature.
+    def kv(vi, temp):
+        return bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": "VG 46",
+                                                       "vi": vi, "temp": temp})["values"]["kv"]
+    assert kv(150, 80) > kv(100, 80)
+    assert kv(150, 0) < kv(100, 0)
+
+
+def test_grade_too_thin_for_its_vi_names_the_vi():
+    # VG 2 (mid-point 2.2 cSt) is below H = 6.394 cSt at KV100 2 cSt (D2270 Table 1): no VI 100.
+    answer = bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": "VG 2"})
+    assert not answer["ok"] and answer["errors"][0]["field"] == "vi"
+
+
+def test_two_reading_keys_are_unchanged():
+    answer = bridge.run("viscosity-at-temperature", {"kv40": 46, "temp1": 40, "kv100": 6.8,
+                                                     "temp2": 100, "temp": 60})
+    assert answer["values"]["kv"] == pytest.approx(20.6, abs=0.05)
+    assert "viscosity" in answer["charts"]

@@ -1,0 +1,87 @@
+"""SVG charts: well-formed, accessible, CSP-safe, and showing what they claim."""
+
+import xml.etree.ElementTree as ET
+
+import pytest
+
+from calc import bridge, chart
+
+SVG = "{http://www.w3.org/2000/svg}"
+
+
+def _parse(svg):
+    return ET.fromstring(svg)
+
+
+def _classes(root):
+    return [c for el in root.iter() for c in el.get("class", "").split()]
+
+
+def _assert_csp_safe(root):
+    for el in root.iter():
+        assert el.tag not in (SVG + "style", SVG + "script")
+        assert "style" not in el.attrib
+        assert not any(k.startswith("on") for k in el.attrib)
+
+
+def test_viscosity_chart_has_line_band_and_point():
+    answer = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 60})
+    root = _parse(answer["charts"]["viscosity"])
+    assert root.tag == SVG + "svg"
+    assert root.get("role") == "img" and root.get("viewBox")
+    assert root.get("width") is None  # scales to the phone's width
+    assert root[0].tag == SVG + "title" and "20.6 cSt" in root[0].text
+    classes = _classes(root)
+    for needed in ("oil-line", "band-optimum", "operating-point", "limit-start", "limit-min"):
+        assert needed in classes
+    _assert_csp_safe(root)
+
+
+def test_limits_differ_by_dash_pattern_not_only_colour():
+    answer = bridge.run("viscosity-at-temperature", {})
+    root = _parse(answer["charts"]["viscosity"])
+    dashes = {el.get("class"): el.get("stroke-dasharray") for el in root.iter()
+              if el.get("class", "").startswith("limit ")}
+    assert len(set(dashes.values())) == 2 and None not in dashes.values()
+
+
+def test_point_sits_on_the_line():
+    # The operating point is drawn at the oil's viscosity at that temperature, so it lies on
+    # the polyline: some segment of the line passes within a pixel of the marker's centre.
+    answer = bridge.run("viscosity-at-temperature", {"temp": 35})
+    root = _parse(answer["charts"]["viscosity"])
+    line = next(el for el in root.iter() if el.get("class") == "oil-line")
+    pts = [tuple(map(float, p.split(","))) for p in line.get("points").split()]
+    ring = next(el for el in root.iter() if el.get("class") == "operating-point")[0]
+    cx, cy = float(ring.get("cx")), float(ring.get("cy"))
+
+    def dist(p, q):
+        (x1, y1), (x2, y2) = p, q
+        t = max(0.0, min(1.0, ((cx - x1) * (x2 - x1) + (cy - y1) * (y2 - y1))
+                         / ((x2 - x1) ** 2 + (y2 - y1) ** 2)))
+        return ((x1 + t * (x2 - x1) - cx) ** 2 + (y1 + t * (y2 - y1) - cy) ** 2) ** 0.5
+    assert min(dist(p, q) for p, q in zip(pts, pts[1:])) < 1.0
+
+
+@pytest.mark.parametrize("inputs", [
+    {"temp": -60}, {"temp": 250}, {"kv40": 3200, "kv100": 100, "temp": -30},
+    {"oil_from": "grade", "grade": "VG 10", "vi": 160, "temp": 90, "pump": "piston"},
+    {"visc_start": 2000, "visc_opt_high": 80, "visc_opt_low": 20, "visc_min": 12},
+])
+def test_chart_is_well_formed_at_the_edges(inputs):
+    answer = bridge.run("viscosity-at-temperature", inputs)
+    assert answer["ok"], answer
+    root = _parse(answer["charts"]["viscosity"])
+    _assert_csp_safe(root)
+    for el in root.iter():
+        for name in ("x", "y", "cx", "cy", "width", "height"):
+            if el.get(name) is not None:
+                float(el.get(name))  # a number, never "nan" or "inf"
+                assert "nan" not in el.get(name) and "inf" not in el.get(name)
+
+
+def test_helpers_refuse_style_and_escape_text():
+    with pytest.raises(ValueError):
+        chart.element("rect", style="fill:red")
+    root = _parse(chart.document(100, 50, "a < b & c", "d", [chart.text(1, 2, "<x>")]))
+    assert root[0].text == "a < b & c"
