@@ -98,6 +98,9 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("fraction", ""),
     _quantity("ratio", ""),
     _quantity("count", ""),
+    _quantity("per_ml", "/mL", digits=4),  # particles per mL (ISO 4406); no US unit
+    _quantity("acid_number", "mg KOH/g"),  # ASTM D664 / D974; no US unit
+    _quantity("molar_energy", "kJ/mol"),  # activation energy; shown in SI everywhere
     _quantity("minutes", "min"),
     _quantity("hours", "h", digits=4),
     _quantity("seconds", "s"),
