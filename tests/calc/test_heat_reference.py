@@ -1,0 +1,55 @@
+"""Natural convection against `ht` (Caleb Bell's heat transfer library, tests only)."""
+
+import pytest
+
+ht = pytest.importorskip("ht")
+
+from calc.convection import (GRAVITY, KELVIN, air_properties, convection_coefficient,  # noqa: E402
+                             nu_horizontal_cylinder, nu_plate_hot_side_up, nu_vertical_plate)
+
+RAYLEIGHS = [1e2, 1e4, 3.3e6, 1e7, 2e7, 1e9, 1e11]
+PRANDTLS = [0.69, 0.707, 0.72]
+
+
+@pytest.mark.parametrize("ra", RAYLEIGHS)
+@pytest.mark.parametrize("pr", PRANDTLS)
+def test_vertical_plate_churchill_chu(ra, pr):
+    # ht.conv_free_immersed.Nu_vertical_plate_Churchill (Churchill and Chu 1975).
+    assert nu_vertical_plate(ra, pr) == pytest.approx(ht.Nu_vertical_plate_Churchill(pr, ra / pr), rel=1e-12)
+
+
+@pytest.mark.parametrize("ra", RAYLEIGHS)
+def test_hot_plate_facing_up_mcadams(ra):
+    # ht.conv_free_immersed.Nu_horizontal_plate_McAdams, buoyancy-assisted (McAdams 1954).
+    assert nu_plate_hot_side_up(ra) == pytest.approx(
+        ht.Nu_horizontal_plate_McAdams(0.7, ra / 0.7, buoyancy=True), rel=1e-12)
+
+
+@pytest.mark.parametrize("ra", RAYLEIGHS)
+@pytest.mark.parametrize("pr", PRANDTLS)
+def test_horizontal_cylinder_churchill_chu(ra, pr):
+    # ht.conv_free_immersed.Nu_horizontal_cylinder_Churchill_Chu.
+    assert nu_horizontal_cylinder(ra, pr) == pytest.approx(
+        ht.Nu_horizontal_cylinder_Churchill_Chu(pr, ra / pr), rel=1e-12)
+
+
+@pytest.mark.parametrize("orientation, method", [
+    ("vertical", lambda pr, gr: ht.Nu_vertical_plate_Churchill(pr, gr)),
+    ("up", lambda pr, gr: ht.Nu_horizontal_plate_McAdams(pr, gr, buoyancy=True)),
+    ("cylinder", lambda pr, gr: ht.Nu_horizontal_cylinder_Churchill_Chu(pr, gr)),
+])
+@pytest.mark.parametrize("length_m, surface_c, air_c", [(0.55, 80.0, 25.0), (0.2, 45.0, -10.0),
+                                                         (1.2, 120.0, 40.0)])
+def test_coefficient_from_the_same_air_properties(orientation, method, length_m, surface_c, air_c):
+    # h = Nu k / L with Gr = g beta dT L^3 / nu^2, beta = 1 / T_film, ht's Nusselt number.
+    nu, k, pr = air_properties((surface_c + air_c) / 2)
+    beta = 1.0 / ((surface_c + air_c) / 2 + KELVIN)
+    gr = GRAVITY * beta * (surface_c - air_c) * length_m ** 3 / nu ** 2
+    expected = method(pr, gr) * k / length_m
+    assert convection_coefficient(orientation, length_m, surface_c, air_c) == pytest.approx(expected, rel=1e-12)
+
+
+def test_free_convection_of_a_tank_wall_is_a_few_watts():
+    # Order of magnitude (Incropera ch. 9 discussion, from memory): free convection in air gives
+    # about 2 to 25 W/(m^2 K); a 0.5 m wall at 60 degC in 20 degC air sits near 5.
+    assert 2.0 < convection_coefficient("vertical", 0.5, 60.0, 20.0) < 25.0
