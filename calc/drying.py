@@ -23,8 +23,9 @@ import math
 
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
-from .water import (DRAIN_CAUTION, TARGET_FRACTION, oil_fields, reading_fields, reading_to_ppm,
-                    saturation_line, tank_fields, warn_outside, water_volume_ml)
+from .water import (DRAIN_CAUTION, TARGET_FRACTION, note_coldest, note_unused_calibration,
+                    oil_fields, reading_fields, reading_to_ppm, saturation_line, tank_fields,
+                    warn_outside, water_volume_ml)
 
 _PPM = "ppm"
 _T = "temperature"
@@ -109,6 +110,7 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     """Time to dry the tank to the target on the well-mixed model, with the target itself."""
     line = saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
     content = reading_to_ppm(reading, rh, ppm, temp, line)
+    temp_cold_entered, temp_cold = temp_cold, min(temp, temp_cold)  # never above the reading
     sat_cold = line.saturation(temp_cold)
     usual = drying_target_ppm(sat_cold)
     target = usual if target_ppm is None else target_ppm
@@ -159,6 +161,8 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     result.note("Connecting a unit means opening the circuit: stop and lock out the machine, "
                 "relieve pressure (accumulators too), mind hot oil and surfaces, and follow the "
                 "unit maker's instructions.")
+    note_coldest(result, temp, temp_cold_entered)
+    note_unused_calibration(result, oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
     warn_outside(result, line, (temp, temp_cold))
     result.sources += [line.source,
                        "Well-mixed tank, first-order removal: C(t) = C0 exp(−η Q t / V)",

@@ -196,7 +196,8 @@ def saturation_line(oil: str, cal_temp1: float | None = None, cal_ppm1: float | 
     if missing:
         raise InputError.combine(missing)
     if abs(cal_temp2 - cal_temp1) < 5.0:
-        raise InputError("cal_temp2", "the two calibration temperatures must be at least 5 °C apart")
+        raise InputError("cal_temp2", "the two calibration temperatures must be at least "
+                                      "5 °C (9 °F) apart")
     warm_ppm, cold_ppm = (cal_ppm2, cal_ppm1) if cal_temp2 > cal_temp1 else (cal_ppm1, cal_ppm2)
     warm_key = "cal_ppm2" if cal_temp2 > cal_temp1 else "cal_ppm1"
     if warm_ppm <= cold_ppm:
@@ -209,6 +210,12 @@ def saturation_line(oil: str, cal_temp1: float | None = None, cal_ppm1: float | 
     low, high = sorted((cal_temp1, cal_temp2))
     return SaturationLine(a, b, low - CALIBRATION_REACH_K, high + CALIBRATION_REACH_K,
                           "Own calibration through two saturation points", "own calibration")
+
+
+def note_unused_calibration(result: Result, oil: str, *cal_values: float | None) -> None:
+    if oil != OWN_CALIBRATION and any(v is not None for v in cal_values):
+        result.note("The calibration points are used only with the oil \"Own calibration\"; "
+                    "this answer uses the preset.")
 
 
 def reading_to_ppm(reading: str, rh: float, ppm: float, temp: float, line: SaturationLine) -> float:
@@ -309,6 +316,7 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     """Where the water in the oil is now and at the coldest temperature, and how much there is."""
     line = saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
     content = reading_to_ppm(reading, rh, ppm, temp, line)
+    temp_cold_entered, temp_cold = temp_cold, min(temp, temp_cold)  # never above the reading
     sat, sat_cold = line.saturation(temp), line.saturation(temp_cold)
     free, free_cold = max(0.0, content - sat), max(0.0, content - sat_cold)
     t_free = free_water_temp_c(content, line.a, line.b)
@@ -337,6 +345,8 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
                    "The sensor reads saturated: there may be free water it cannot count; take a "
                    "sample for Karl Fischer (ASTM D6304) and check the tank bottom for water.")
     cold_verdict(result, content, temp_cold, sat_cold, shown_t_free)
+    note_coldest(result, temp, temp_cold_entered)
+    note_unused_calibration(result, oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
     if free > 0.0 or free_cold > 0.0:
         result.note(DRAIN_CAUTION)
         if min(temp, temp_cold) < 0.0:
@@ -351,6 +361,14 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
                        "Target of at most 50 % of saturation at the coldest temperature: "
                        "common practice"]
     return result
+
+
+def note_coldest(result: Result, temp: float, temp_cold: float) -> None:
+    """Say so when the coldest temperature entered is warmer than the reading itself."""
+    if temp_cold > temp:
+        result.note("The coldest temperature entered ({0}) is above the oil's temperature at the "
+                    "reading: the oil has been at {1}, so the cold check uses {1}.",
+                    Q(temp_cold, _T), Q(temp, _T))
 
 
 def cold_verdict(result: Result, content: float, temp_cold: float, sat_cold: float,

@@ -182,3 +182,11 @@ def test_bridge_us_units():
     assert us["units"]["water_ml"] == "US fl oz"
     # 1 US fl oz = 29.5735 mL (NIST SP 811)
     assert us["values"]["water_ml"] * 29.5735295625 == pytest.approx(metric["values"]["water_ml"])
+
+
+def test_coldest_temperature_is_never_above_the_reading():
+    # The oil has been at the reading's temperature, so a warmer "coldest" is taken as the reading's.
+    warmer = _run(temp=30.0, temp_cold=60.0)
+    same = _run(temp=30.0, temp_cold=30.0)
+    assert warmer.values["sat_cold"] == pytest.approx(same.values["sat_cold"])
+    assert any("cold check uses" in n.template for n in warmer.notes)
