@@ -54,6 +54,9 @@ def air_fraction_at_pressure(x0: float, p_abs_bar: float, p0_abs_bar: float = P_
 
     x = x0 (p0/p)^(1/n) / (x0 (p0/p)^(1/n) + (1 - x0) exp(-(p - p0) / K_oil))
 
+    n : exponent of the compression path p V^n = const: 1 for air settled at the oil's
+        temperature (isothermal, Boyle), 1.4 for a fast squeeze (adiabatic)
+
     >>> round(air_fraction_at_pressure(0.01, 101.3, 1.013), 6)
     0.000102
     """

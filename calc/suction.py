@@ -201,7 +201,10 @@ def suction_check(flow: float, bore: float, length: float, roughness: float, hea
     kv_cold = walther_viscosity(temp_cold, a, b)
     re, re_cold = reynolds_number(velocity, bore, kv), reynolds_number(velocity, bore, kv_cold)
     p_hot, p_cold = inlet_at(temp), inlet_at(temp_cold)
-    t_starve = starving_temperature(inlet_at, p_min, temp)
+    # Search down to the cold start first, so a starving cold start always finds its crossing.
+    t_starve = starving_temperature(inlet_at, p_min, temp, temp_cold)
+    if t_starve is None and p_hot >= p_min:
+        t_starve = starving_temperature(inlet_at, p_min, temp_cold)
     result = Result(values={
         "velocity": velocity, "kv": kv, "re": re, "regime": flow_regime(re),
         "p_inlet": p_hot, "margin": p_hot - p_min,
