@@ -22,6 +22,7 @@ not a diagnosis: they say where to start.
 
 from __future__ import annotations
 
+from .registry import Field, Output
 from .result import COMMON_PRACTICE, Cause, Q, Result, Text, text
 
 STRONG = 3.0
@@ -31,6 +32,17 @@ AGAINST = -2.0
 
 TOPIC = "Troubleshooting"
 BASIS = "weighted scoring of symptoms and readings, common practice"
+
+# What every checklist shows above its ranked causes.
+RANKING_OUTPUTS = (
+    Output("top_cause", "Most likely cause", "text"),
+    Output("causes_flagged", "Causes with points", "count"),
+)
+
+
+def flag(key: str, label: str, help_text: str = "") -> Field:
+    """A symptom's tick box, unticked to start."""
+    return Field(key, label, "flag", False, help=help_text)
 
 
 class Scoreboard:

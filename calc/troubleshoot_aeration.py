@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from . import foam
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered)
+                         count_entered, flag, RANKING_OUTPUTS)
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import Q
@@ -102,10 +102,6 @@ def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flo
                   Q(dwell, "minutes"), Q(MIN_DWELL_MIN, "minutes"))
 
 
-def _flag(key: str, label: str, help_text: str = "") -> Field:
-    return Field(key, label, "flag", False, help=help_text)
-
-
 @tool(
     "checklist-aeration",
     title="Aeration and foam: what to check first",
@@ -113,17 +109,17 @@ def _flag(key: str, label: str, help_text: str = "") -> Field:
             "are ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        _flag("foam_on_surface", "Foam on the oil in the tank"),
-        _flag("milky_clears", "Oil cloudy, clears from the bottom up when left standing",
+        flag("foam_on_surface", "Foam on the oil in the tank"),
+        flag("milky_clears", "Oil cloudy, clears from the bottom up when left standing",
               "Fine air bubbles rise and clear from the bottom; water clears from the top or "
               "not at all."),
-        _flag("pump_noise", "Pump noisy (rattle, like gravel)"),
-        _flag("spongy", "Actuators spongy or jerky"),
-        _flag("worse_cold", "Worse with cold oil"),
-        _flag("after_suction_work", "Started after work on the pump or suction line"),
-        _flag("return_splashing", "Return flow splashes or is visible at the surface"),
-        _flag("level_low", "Oil level low in the sight glass"),
-        _flag("after_topup", "Started after a top-up or oil change"),
+        flag("pump_noise", "Pump noisy (rattle, like gravel)"),
+        flag("spongy", "Actuators spongy or jerky"),
+        flag("worse_cold", "Worse with cold oil"),
+        flag("after_suction_work", "Started after work on the pump or suction line"),
+        flag("return_splashing", "Return flow splashes or is visible at the surface"),
+        flag("level_low", "Oil level low in the sight glass"),
+        flag("after_topup", "Started after a top-up or oil change"),
         Field("grade", "Oil grade", "choice", "VG 46", choices=foam.GRADE_CHOICES),
         Field("air_release", "Air-release time at 50 °C (lab)", "minutes", None, min=0.0,
               max=120.0, optional=True),
@@ -136,8 +132,7 @@ def _flag(key: str, label: str, help_text: str = "") -> Field:
         Field("pump_flow", "Pump flow", "flow", None, min=0.1, max=1.0e5, optional=True),
     ),
     outputs=(
-        Output("top_cause", "Most likely cause", "text"),
-        Output("causes_flagged", "Causes with points", "count"),
+        *RANKING_OUTPUTS,
         Output("dwell_time", "Oil's time in the tank", "minutes"),
     ),
 )

@@ -36,6 +36,12 @@ def _sections(text):
     return sections
 
 
+def test_the_six_checklists_are_registered():
+    assert CHECKLISTS == sorted(f"checklist-{n}" for n in (
+        "aeration", "water", "overheating", "contamination", "spongy", "noisy-pump"))
+    assert all(registry.get(t).topic == "Troubleshooting" for t in CHECKLISTS)
+
+
 @pytest.mark.parametrize("tool_id", CHECKLISTS)
 def test_page_sections_are_the_rules_causes_in_order(tool_id):
     # Both ways: every Cause key has a section, every section is a Cause; same order (tie-break).

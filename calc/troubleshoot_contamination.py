@@ -1,0 +1,169 @@
+"""Troubleshooting checklist: particle contamination and wear.
+
+Symptoms and the oil's ISO 4406 code (three scale numbers, >= 4, >= 6, >= 14 um(c))
+against a target for the most sensitive component, ranked over the causes of
+site_src/checklists/contamination.md. The iso-4406 tool turns particle counts into
+the code.
+"""
+
+from __future__ import annotations
+
+from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
+                         count_entered, flag, RANKING_OUTPUTS)
+from .errors import InputError
+from .registry import Field, Output, tool
+from .result import COMMON_PRACTICE, Q
+
+CAUSES = (
+    ("breather-ingress", "Dirt drawn in through the breather, hatches or rod seals"),
+    ("filter-bypass", "Filter blocked, in bypass or of the wrong rating"),
+    ("dirty-topup", "Unfiltered new oil or dirty top-up gear"),
+    ("repair-dirt", "Dirt left in after a repair"),
+    ("wear-debris", "Wear inside the pump, valves or cylinders"),
+)
+
+# Target ISO 4406 codes by the most dirt-sensitive component: common practice, typical of
+# filter makers' guidance, FROM MEMORY. The machine maker's target takes precedence.
+TARGETS = (
+    ("servo", "Servo valves", (16, 14, 11)),
+    ("proportional", "Proportional valves", (17, 15, 12)),
+    ("piston", "Piston pumps, high pressure", (18, 16, 13)),
+    ("general", "Vane or gear pumps, general industrial", (19, 17, 14)),
+)
+TARGET_CHOICES = tuple((key, label) for key, label, _ in TARGETS)
+ISO4406_MAX_SCALE = 28  # ISO 4406:2021, table 1: scale numbers 0 to 28 (from memory)
+
+CAUTION = ("Stop, lock out and relieve pressure (accumulators, raised loads) before changing a "
+           "filter or opening a line; oil may be hot. Bag used filters and dispose of them and "
+           "the oil by local rules.")
+
+
+def target_code(component: str) -> tuple[int, int, int]:
+    """The common-practice target code for the most sensitive component.
+
+    >>> target_code("servo")
+    (16, 14, 11)
+    """
+    for key, _, code in TARGETS:
+        if key == component:
+            return code
+    raise InputError("component", f"must be one of {', '.join(k for k, *_ in TARGETS)}")
+
+
+def steps_over(code: tuple[float, float, float], target: tuple[int, int, int]) -> float:
+    """The largest number of ISO 4406 steps by which the code exceeds the target (may be < 0).
+
+    Each step doubles the particle count (ISO 4406 scale), so 2 steps over is 4 times the count.
+
+    >>> steps_over((20, 18, 13), (18, 16, 13))
+    2
+    """
+    return max(c - t for c, t in zip(code, target))
+
+
+def _code_field(key: str, label: str) -> Field:
+    return Field(key, label, "count", None, min=0.0, max=float(ISO4406_MAX_SCALE), optional=True,
+                 help="One number of the code, e.g. 18 in 18/16/13.")
+
+
+def _check_code(code_4, code_6, code_14):
+    entered = [c for c in (code_4, code_6, code_14) if c is not None]
+    if not entered:
+        return None
+    if len(entered) != 3:
+        missing = next(k for k, c in (("code_4", code_4), ("code_6", code_6),
+                                      ("code_14", code_14)) if c is None)
+        raise InputError(missing, "enter all three numbers of the ISO 4406 code, or none")
+    if not code_4 >= code_6 >= code_14:
+        raise InputError("code_6", "the code's numbers cannot rise from left to right: every "
+                                   "particle of 14 um is also counted at 6 and 4 um")
+    return (code_4, code_6, code_14)
+
+
+@tool(
+    "checklist-contamination",
+    title="Dirty oil and wear: what to check first",
+    summary="Tick what you see and enter the oil's cleanliness code; the ways dirt gets in are "
+            "ranked, each with its checks and cautions.",
+    topic=TOPIC,
+    inputs=(
+        flag("filter_indicator", "Filter indicator shows blocked or bypass"),
+        flag("breather_open", "Breather missing, open or without a fine filter"),
+        flag("dusty_site", "Dusty site, or rods exposed to dirt"),
+        flag("rods_scored", "Cylinder rods scored, wipers worn"),
+        flag("after_topup", "Started after a top-up or oil change"),
+        flag("after_repair", "Started after a repair or a new hose or part"),
+        flag("valves_sticking", "Valves stick or act erratically"),
+        flag("metal_seen", "Shiny metal on the filter element or a magnet"),
+        flag("pump_louder", "Pump louder or slower than it used to be"),
+        Field("component", "Most dirt-sensitive component", "choice", "piston",
+              choices=TARGET_CHOICES),
+        _code_field("code_4", "ISO 4406 code: first number (≥ 4 µm)"),
+        _code_field("code_6", "ISO 4406 code: second number (≥ 6 µm)"),
+        _code_field("code_14", "ISO 4406 code: third number (≥ 14 µm)"),
+    ),
+    outputs=(
+        *RANKING_OUTPUTS,
+        Output("target", "Target code", "text"),
+        Output("steps_over", "Steps over the target", "count",
+               "Each step doubles the particle count."),
+    ),
+)
+def checklist_contamination(filter_indicator=False, breather_open=False, dusty_site=False,
+                            rods_scored=False, after_topup=False, after_repair=False,
+                            valves_sticking=False, metal_seen=False, pump_louder=False,
+                            component="piston", code_4=None, code_6=None, code_14=None):
+    """Rank the ways dirt gets into the oil from symptoms and the cleanliness code."""
+    code = _check_code(code_4, code_6, code_14)
+    target = target_code(component)
+    board = Scoreboard(CAUSES)
+    if filter_indicator:
+        board.add("filter-bypass", STRONG, "filter indicator shows blocked or bypass")
+    if breather_open:
+        board.add("breather-ingress", STRONG, "breather open or without a fine filter")
+    if dusty_site:
+        board.add("breather-ingress", MODERATE, "dusty site or exposed rods")
+    if rods_scored:
+        board.add("breather-ingress", MODERATE, "scored rods and worn wipers let dirt in")
+        board.add("wear-debris", WEAK, "scored rods: something hard is in the oil")
+    if after_topup:
+        board.add("dirty-topup", STRONG, "started after a top-up or oil change")
+    if after_repair:
+        board.add("repair-dirt", STRONG, "started after a repair or a new part")
+    if valves_sticking:
+        board.add_each(("filter-bypass", "repair-dirt", "wear-debris"), WEAK,
+                       "sticking valves: fine dirt silting the spools")
+    if metal_seen:
+        board.add("wear-debris", STRONG, "shiny metal on the filter or magnet")
+    if pump_louder:
+        board.add("wear-debris", MODERATE, "pump louder or slower: wear")
+    over = None
+    if code is not None:
+        over = steps_over(code, target)
+        shown = "/".join(f"{c:g}" for c in code)
+        aim = "/".join(str(t) for t in target)
+        if over >= 1:
+            board.add_each(("breather-ingress", "filter-bypass", "dirty-topup", "repair-dirt"),
+                           WEAK, f"code {shown} is {{0}} steps over the target {aim}",
+                           Q(over, "count"))
+        if over >= 3:
+            board.add("filter-bypass", MODERATE, "{0} steps over target: eight times the "
+                      "particles or more, the filter is not keeping up", Q(over, "count"))
+    entered = count_entered(filter_indicator, breather_open, dusty_site, rods_scored, after_topup,
+                            after_repair, valves_sticking, metal_seen, pump_louder, code)
+    result = checklist_result(board, entered, CAUTION)
+    result.values["target"] = "/".join(str(t) for t in target)
+    result.values["steps_over"] = None if over is None else float(over)
+    if over is not None:
+        basis = COMMON_PRACTICE + ", target codes from memory"
+        if over >= 3:
+            result.add("act", basis, "The code is {0} steps over the target: clean the oil now "
+                       "and find the way in.", Q(over, "count"))
+        elif over >= 1:
+            result.add("watch", basis, "The code is {0} steps over the target: find the way in "
+                       "before wear starts.", Q(over, "count"))
+        else:
+            result.add("ok", basis, "The code meets the target for this component.")
+    result.sources += ["ISO 4406 code: each scale step doubles the count",
+                       "Target codes by component: common practice, from memory"]
+    return result

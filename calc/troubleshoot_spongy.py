@@ -1,0 +1,104 @@
+"""Troubleshooting checklist: spongy, jerky or sluggish motion.
+
+Symptoms and readings (oil temperature, entrained air) ranked over the causes of
+site_src/checklists/spongy.md. The air-stiffness tool turns an air content and a
+pressure into the loss of stiffness; the viscosity tools tell how thick the oil
+is at the temperature entered here.
+"""
+
+from __future__ import annotations
+
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
+                         count_entered, flag, RANKING_OUTPUTS)
+from .registry import Field, Output, tool
+from .result import Q
+
+CAUSES = (
+    ("entrained-air", "Air carried in the oil"),
+    ("trapped-air", "Air trapped in cylinders or high points"),
+    ("cold-oil", "Oil too thick while cold"),
+    ("internal-leakage", "Leakage past seals or valve spools"),
+    ("soft-lines", "Long or soft hoses swelling under pressure"),
+    ("low-pressure", "Supply pressure too low for the load"),
+)
+
+# Common practice, from memory: well-deaerated oil in service carries well under 1 % air by
+# volume; from about 1 % the column turns noticeably soft at low and medium pressure.
+AIR_WATCH_PCT = 1.0
+# Common practice: below about 15 degC most hydraulic oils are several times thicker than at
+# working temperature; above 30 degC cold oil is not the cause.
+COLD_C = 15.0
+WARM_C = 30.0
+
+CAUTION = ("Before bleeding air or opening a line, stop the machine, lower or block raised "
+           "loads, relieve accumulators and lock out; bleed through the proper bleed screws "
+           "only, never by loosening a fitting under pressure. Keep clear of moving parts.")
+
+
+@tool(
+    "checklist-spongy",
+    title="Spongy or sluggish motion: what to check first",
+    summary="Tick what you see and enter the readings you have; the causes of soft, jerky or "
+            "slow motion are ranked, each with its checks and cautions.",
+    topic=TOPIC,
+    inputs=(
+        flag("foam_or_cloudy", "Foam in the tank or cloudy oil"),
+        flag("after_repair", "Started after the circuit was opened or refilled"),
+        flag("springy_stop", "Actuator bounces or springs back when it stops"),
+        flag("jerky_slow", "Jerky at low speed"),
+        flag("worse_cold", "Worse with cold oil, better once warm"),
+        flag("drifts", "A held cylinder creeps or drifts"),
+        flag("slow_under_load", "Slow only under load"),
+        flag("long_hoses", "Long hoses between valve and actuator"),
+        flag("pressure_drops", "Gauge pressure falls under load"),
+        Field("temp", "Oil temperature", "temperature", None, min=-40.0, max=150.0,
+              optional=True),
+        Field("air_content", "Entrained air, by volume at atmospheric pressure", "percent", None,
+              min=0.0, max=50.0, optional=True, help="From a sample or the air-stiffness tool."),
+    ),
+    outputs=RANKING_OUTPUTS,
+)
+def checklist_spongy(foam_or_cloudy=False, after_repair=False, springy_stop=False,
+                     jerky_slow=False, worse_cold=False, drifts=False, slow_under_load=False,
+                     long_hoses=False, pressure_drops=False, temp=None, air_content=None):
+    """Rank the causes of spongy or sluggish motion from symptoms and readings."""
+    board = Scoreboard(CAUSES)
+    if foam_or_cloudy:
+        board.add("entrained-air", STRONG, "foam or cloudy oil: air in the oil")
+    if after_repair:
+        board.add("trapped-air", STRONG, "started after the circuit was opened: not bled")
+    if springy_stop:
+        board.add_each(("entrained-air", "trapped-air", "soft-lines"), WEAK,
+                       "springs back when stopped: something in the column gives")
+    if jerky_slow:
+        board.add_each(("trapped-air", "entrained-air"), WEAK, "jerky at low speed")
+    if worse_cold:
+        board.add("cold-oil", STRONG, "worse cold, better warm")
+    if drifts:
+        board.add("internal-leakage", STRONG, "a held cylinder drifts: oil passes a seal or spool")
+    if slow_under_load:
+        board.add_each(("internal-leakage", "low-pressure"), MODERATE, "slow only under load")
+    if long_hoses:
+        board.add("soft-lines", MODERATE, "long hoses swell and store oil")
+    if pressure_drops:
+        board.add("low-pressure", STRONG, "pressure falls under load")
+        board.add("internal-leakage", WEAK, "pressure falls under load: the pump may leak inside")
+    if temp is not None:
+        if temp < COLD_C:
+            board.add("cold-oil", MODERATE, "oil at {0}, below {1}: several times thicker than "
+                      "when warm", Q(temp, "temperature"), Q(COLD_C, "temperature"))
+        elif temp > WARM_C:
+            board.add("cold-oil", AGAINST, "oil at {0}: warm enough", Q(temp, "temperature"))
+    if air_content is not None:
+        if air_content >= AIR_WATCH_PCT:
+            board.add("entrained-air", STRONG, "{0} air in the oil, at or above {1}",
+                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+        else:
+            board.add("entrained-air", AGAINST, "{0} air in the oil, under {1}",
+                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+    entered = count_entered(foam_or_cloudy, after_repair, springy_stop, jerky_slow, worse_cold,
+                            drifts, slow_under_load, long_hoses, pressure_drops, temp,
+                            air_content)
+    result = checklist_result(board, entered, CAUTION)
+    result.sources.append("Air content 1 %, oil below 15 °C: common practice, from memory")
+    return result
