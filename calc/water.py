@@ -26,6 +26,7 @@ from __future__ import annotations
 
 import math
 
+from . import chart
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
@@ -318,7 +319,8 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     content = reading_to_ppm(reading, rh, ppm, temp, line)
     temp_cold_entered, temp_cold = temp_cold, min(temp, temp_cold)  # never above the reading
     sat, sat_cold = line.saturation(temp), line.saturation(temp_cold)
-    free, free_cold = max(0.0, content - sat), max(0.0, content - sat_cold)
+    free = free_water_ppm(content, temp, line.a, line.b)
+    free_cold = free_water_ppm(content, temp_cold, line.a, line.b)
     t_free = free_water_temp_c(content, line.a, line.b)
     shown_t_free = t_free if t_free is not None and -60.0 <= t_free <= 200.0 else None
     result = Result(values={
@@ -355,6 +357,7 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     if t_free is not None and shown_t_free is None and t_free < -60.0:
         result.note("The oil holds this water dissolved down to below {0}.", Q(-60.0, _T))
     warn_outside(result, line, (temp, temp_cold))
+    result.charts["saturation"] = saturation_chart(line, content, temp, temp_cold, shown_t_free)
     result.sources += [line.source,
                        "Saturation line log10 S = A − B/T (van 't Hoff form)",
                        "ppm = (% saturation / 100) × S(T), definition of relative saturation",
@@ -394,3 +397,46 @@ def cold_verdict(result: Result, content: float, temp_cold: float, sat_cold: flo
                    "All the water stays dissolved down to {0}, where the oil is at {1} of "
                    "saturation: below the usual limit of 50 %.",
                    Q(temp_cold, _T), Q(100.0 * content / sat_cold, "percent"))
+
+
+CHART_W, CHART_H = 400.0, 330.0
+_CHART_BOX = (56.0, 34.0, 330.0, 236.0)  # left, top, width, height of the plot, viewBox units
+
+
+def saturation_chart(line: SaturationLine, content: float, temp_c: float, temp_cold_c: float,
+                     t_free: float | None) -> str:
+    """SVG of the saturation line (log ppm up, °C across), its 50 % line and the content."""
+    t_low = max(-40.0, min(temp_cold_c, t_free if t_free is not None else temp_cold_c) - 10.0)
+    t_high = min(150.0, max(temp_c, t_free if t_free is not None else temp_c) + 15.0)
+    s_low, s_high = line.saturation(t_low), line.saturation(t_high)
+    y_low = max(0.1, min(TARGET_FRACTION * s_low, content if content > 0 else s_low) / 1.5)
+    y_high = max(s_high, content) * 1.5
+    ax = chart.Axes((t_low, t_high), (y_low, y_high), _CHART_BOX, y_scale=math.log10)
+    temps = [t_low + (t_high - t_low) * k / 60 for k in range(61)]
+    left, top, width, _ = _CHART_BOX
+    label_t = t_low + 0.04 * (t_high - t_low)
+    body = [
+        chart.frame(ax, chart.ticks_linear(t_low, t_high), chart.ticks_125(y_low, y_high),
+                    "Oil temperature, °C", "Water, ppm (log scale)", chart.short),
+        chart.polyline([ax.point(t, line.saturation(t)) for t in temps], "saturation-line",
+                       "#12357a", 4.0),
+        chart.polyline([ax.point(t, TARGET_FRACTION * line.saturation(t)) for t in temps],
+                       "target-line", "#2e6b2e", 2.0, "6 3"),
+        chart.text(ax.x(label_t), ax.y(line.saturation(label_t)) - 8, "saturation",
+                   "line-label", fill="#12357a", weight="bold"),
+        chart.text(ax.x(label_t), ax.y(TARGET_FRACTION * line.saturation(label_t)) + 20,
+                   "50 % of saturation", "line-label", fill="#1f4d1f"),
+    ]
+    if content > 0.0:
+        label_y = ax.y(content) + 20 if ax.y(content) - 8 < top + chart.TEXT_SIZE else ax.y(content) - 8
+        body += [chart.hline(ax, content, "content-line", "#8b1a1a", 2.5, "12 5"),
+                 chart.text(left + width - 4, label_y, f"water {chart.short(content)} ppm",
+                            "point-label", anchor="end", weight="bold"),
+                 chart.marker(*ax.point(temp_c, content), "reading-point"),
+                 chart.marker(*ax.point(temp_cold_c, content), "cold-point", radius=5.0)]
+    title = (f"Saturation against temperature: {chart.short(content)} ppm of water, "
+             f"{chart.short(line.saturation(temp_c))} ppm held at {temp_c:.0f} °C")
+    desc = ("The oil's saturation line (solid), half of it as the usual limit (short dashes), "
+            "and the water content (long dashes) with rings at the reading's and the coldest "
+            "temperature. Where the content line is above the solid line, free water drops out.")
+    return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-saturation")

@@ -190,3 +190,11 @@ def test_coldest_temperature_is_never_above_the_reading():
     same = _run(temp=30.0, temp_cold=30.0)
     assert warmer.values["sat_cold"] == pytest.approx(same.values["sat_cold"])
     assert any("cold check uses" in n.template for n in warmer.notes)
+
+
+def test_chart_is_a_self_describing_svg():
+    # The page shows the SVG as it is: it carries its own title and description, no style.
+    for result in (_run(), _run(reading="ppm", ppm=0.0), _run(reading="ppm", ppm=90000.0)):
+        svg = result.charts["saturation"]
+        assert svg.startswith("<svg") and "<title>" in svg and "<desc>" in svg
+        assert "style=" not in svg and "nan" not in svg.lower() and "inf" not in svg.lower()
