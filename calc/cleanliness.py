@@ -146,14 +146,23 @@ def code_excess(measured: Code, target: Code) -> tuple[int | None, ...]:
     return tuple(None if m is None or t is None else m - t for m, t in zip(measured, target))
 
 
-def worst_excess(measured: Code, target: Code) -> float | None:
+def worst_excess(measured: Code, target: Code) -> int | None:
     """The most codes any size is over target (negative: cleaner); None if nothing compares.
 
     >>> worst_excess((19, 17, 13), (18, 16, 14)), worst_excess((None, 16, 13), (18, None, None))
-    (1.0, None)
+    (1, None)
     """
     compared = [e for e in code_excess(measured, target) if e is not None]
-    return float(max(compared)) if compared else None
+    return max(compared) if compared else None
+
+
+def excess_text(excess: int | None) -> str | None:
+    """Codes over target as shown: "+2", "0", "-1"; None if nothing compares.
+
+    >>> excess_text(2), excess_text(0), excess_text(-1)
+    ('+2', '0', '-1')
+    """
+    return None if excess is None else f"{excess:+d}" if excess else "0"
 
 
 def excess_level(excess: tuple[int | None, ...]) -> str:
@@ -297,7 +306,7 @@ def add_cleanliness_verdict(result: Result, measured: Code, target: Code) -> Non
         Output("low14", "≥14 µm(c): more than", _COUNT),
         Output("high14", "≥14 µm(c): up to", _COUNT),
         Output("target_code", "Target code", "text"),
-        Output("excess", "Codes over target (worst size)", _SCALE,
+        Output("excess", "Codes over target (worst size)", "text",
                "Negative: that many codes cleaner than the target."),
     ),
 )
@@ -319,7 +328,7 @@ def iso_4406(source: str, count4: float, count6: float, count14: float,
         low, high = (None, None) if number is None else scale_range(number)
         values[f"low{size}"], values[f"high{size}"] = low, high
     values["target_code"] = format_code(target)
-    values["excess"] = worst_excess(measured, target)
+    values["excess"] = excess_text(worst_excess(measured, target))
     result = Result(values=values)
     add_cleanliness_verdict(result, measured, target)
     if target is not own:

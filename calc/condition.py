@@ -18,7 +18,8 @@ Limits (all editable on the form, each with its basis):
 
 from __future__ import annotations
 
-from .cleanliness import add_cleanliness_verdict, code_from_fields, scale_fields, worst_excess
+from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields, \
+    worst_excess
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Result
@@ -113,8 +114,8 @@ _VISC_ACTIONS = {
         Output("level", "Overall verdict", "text"),
         Output("visc_change", "Viscosity change", _PCT),
         Output("an_rise", "Acid number rise", _AN),
-        Output("excess", "Cleanliness: codes over target", "count"),
-        Output("findings", "Findings over a limit", "count"),
+        Output("excess", "Cleanliness: codes over target", "text"),
+        Output("findings", "Findings over a limit", "text"),
     ),
 )
 def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
@@ -146,7 +147,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                          "tool gives typical targets)")
 
     result = Result(values={"level": "ok", "visc_change": None, "an_rise": None,
-                            "excess": None, "findings": 0.0})
+                            "excess": None, "findings": "0"})
     change = viscosity_change_pct(kv40, kv40_new)
     result.values["visc_change"] = change
     _viscosity_verdict(result, change, kv40, kv40_new, visc_watch, visc_act)
@@ -159,7 +160,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
         _limit_verdict(result, level_rising(ppm, water_watch, water_act), _WATER_TEXT, _PPM, ppm,
                        water_watch, water_act)
     if has_code:
-        result.values["excess"] = worst_excess(code, target)
+        result.values["excess"] = excess_text(worst_excess(code, target))
         add_cleanliness_verdict(result, code, target)
     if reserve is not None:
         _limit_verdict(result, level_falling(reserve, reserve_watch, reserve_act),
@@ -168,7 +169,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
 
     result.verdicts.sort(key=lambda v: -LEVELS.index(v.level))  # most urgent first
     result.values["level"] = result.level
-    result.values["findings"] = float(sum(v.level != "ok" for v in result.verdicts))
+    result.values["findings"] = str(sum(v.level != "ok" for v in result.verdicts))
     result.note("One sample can mislead: confirm a bad result with a second sample taken the "
                 "same way before a costly action, and trend every result over time.")
     result.note("Sampling a running machine: the line is under pressure and the oil may be hot; "

@@ -148,3 +148,9 @@ def test_watch_level_must_be_above_limit():
     with pytest.raises(InputError) as err:
         _trend(watch_pct=25.0)
     assert err.value.field == "watch_pct"
+
+
+def test_life_chart_is_drawn():
+    svg = _life().charts["life"]
+    assert svg.startswith("<svg") and "<title>" in svg and "style=" not in svg
+    assert svg.count("<polyline") >= 2

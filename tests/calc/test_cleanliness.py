@@ -154,12 +154,12 @@ def test_tool_from_a_code_with_a_missing_size():
     assert result.values["code"] == "-/17/13"
     assert result.values["low4"] is None
     assert (result.values["low6"], result.values["high6"]) == (640.0, 1300.0)
-    assert result.values["excess"] == 1.0 and result.level == "watch"
+    assert result.values["excess"] == "+1" and result.level == "watch"
 
 
 def test_tool_own_target_and_errors():
     result = _iso(target4=19.0, target6=17.0, target14=14.0)
-    assert result.values["target_code"] == "19/17/14" and result.values["excess"] == -1.0
+    assert result.values["target_code"] == "19/17/14" and result.values["excess"] == "-1"
     with pytest.raises(InputError) as err:
         _iso(source="code")
     assert err.value.field == "scale6"
