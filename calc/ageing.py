@@ -141,6 +141,8 @@ DEMO_TEMP_C = 60.0
 METHOD_CHOICES = (("doubling", "Doubles every 10 K (rule of thumb)"),
                   ("arrhenius", "Arrhenius"))
 PROFILE_ROWS = 4
+FAR_K = 30.0  # beyond this from the reference, both models are far extrapolations
+HOT_OIL_C = 80.0  # common practice: mineral hydraulic oil ages fast above this
 _T, _H = "temperature", "hours"
 
 
@@ -267,13 +269,14 @@ def oxidation_life(ref_life: float, ref_temp: float, temp: float, method: str, s
     result.note("At {0} the oil ages {1} times as fast as at {2}.",
                 Q(temp, _T), Q(speed, "ratio"), Q(ref_temp, _T))
     hottest = max([temp] + [t for _h, t in profile])
-    if any(abs(t - ref_temp) > 30.0 for t in [temp] + [t for _h, t in profile]):
-        result.note("Temperatures more than 30 K from the reference are far extrapolations: "
-                    "both models are rough there and part ways; trust oil tests over them.")
-    if hottest > 80.0:
-        result.note("Above about 80 °C mineral hydraulic oil ages fast and additives and seals "
+    if any(abs(t - ref_temp) > FAR_K for t in [temp] + [t for _h, t in profile]):
+        result.note("Temperatures more than {0} from the reference are far extrapolations: "
+                    "both models are rough there and part ways; trust oil tests over them.",
+                    Q(FAR_K, "temperature_difference"))
+    if hottest > HOT_OIL_C:
+        result.note("Above about {0} mineral hydraulic oil ages fast and additives and seals "
                     "suffer (common practice); find out why it runs hot. Hot oil and surfaces "
-                    "burn: let them cool before touching.")
+                    "burn: let them cool before touching.", Q(HOT_OIL_C, _T))
     if ref_life == DEMO_LIFE_H and ref_temp == DEMO_TEMP_C:
         result.note("The reference life of {0} at {1} is the form's demo figure, not a "
                     "property of any oil: enter your oil's figure.",

@@ -317,10 +317,12 @@ def iso_4406(source: str, count4: float, count6: float, count14: float,
     """ISO 4406 code (or its ranges) against a target code."""
     if source == "counts":
         measured = iso4406_code(count4, count6, count14)
+        ignored = any(n is not None for n in (scale4, scale6, scale14))
     else:
         measured = code_from_fields("scale", (scale4, scale6, scale14))
         if all(n is None for n in measured):
             raise InputError("scale6", "enter the code's scale numbers, or start from counts")
+        ignored = False
     own = code_from_fields("target", (target4, target6, target14))
     target = own if any(n is not None for n in own) else target_code(component, pressure)
     values: dict[str, float | str | None] = {"code": format_code(measured)}
@@ -331,12 +333,14 @@ def iso_4406(source: str, count4: float, count6: float, count14: float,
     values["excess"] = excess_text(worst_excess(measured, target))
     result = Result(values=values)
     add_cleanliness_verdict(result, measured, target)
+    if ignored:
+        result.note("Starting from counts: the code typed under 'Code on the report' is not used.")
     if target is not own:
         result.note("The target is a typical figure for the component and pressure (common "
                     "practice); the component maker's figure always takes precedence.")
     if ABOVE_TABLE in measured:
-        result.note("A count above 2 500 000 per mL is off the ISO 4406 table (>28): dilute "
-                    "the sample or count by another method.")
+        result.note("A count above {0} is off the ISO 4406 table (>28): dilute the sample "
+                    "or count by another method.", Q(SCALE_TABLE[-1][2], _COUNT))
     result.note("Take samples from a running line upstream of the filters with a valve and "
                 "bottle kept clean (ISO 4021, ISO 3722). The line is under pressure and the oil "
                 "may be hot: wear gloves and eye protection, and never feel for a leak by hand.")

@@ -171,3 +171,9 @@ def test_tool_own_target_and_errors():
 def test_bridge_runs_iso_4406_with_typed_numbers():
     answer = bridge.run("iso-4406", {"count4": "2 100", "count6": "480,5", "count14": "60"})
     assert answer["ok"] and answer["values"]["code"] == "18/16/13"
+
+
+def test_code_typed_while_starting_from_counts_is_flagged():
+    result = _iso(scale6=20.0, scale14=15.0)
+    assert result.values["code"] == "18/16/13"
+    assert any("not used" in n.template for n in result.notes)
