@@ -11,6 +11,8 @@ Correlations, each for an isothermal surface:
         Nu = {0.825 + 0.387 Ra^(1/6) / [1 + (0.492/Pr)^(9/16)]^(8/27)}^2
     horizontal plate, hot side up, L = area / perimeter (McAdams 1954, Lloyd and Moran 1974):
         Nu = 0.54 Ra^(1/4) for Ra <= 1e7,   Nu = 0.15 Ra^(1/3) above
+    the same plate colder than the air above it (McAdams 1954, as in `ht`):
+        Nu = 0.27 Ra^(1/4) for Ra <= 1e10,  Nu = 0.15 Ra^(1/3) above
     horizontal cylinder, L = D (Churchill and Chu 1975):
         Nu = {0.60 + 0.387 Ra^(1/6) / [1 + (0.559/Pr)^(9/16)]^(8/27)}^2
     radiation to surroundings at the air temperature, grey surface:
@@ -98,6 +100,18 @@ def nu_plate_hot_side_up(rayleigh: float) -> float:
     return 0.15 * rayleigh ** (1.0 / 3.0)
 
 
+def nu_plate_cold_side_up(rayleigh: float) -> float:
+    """McAdams average Nusselt number, upper face of a horizontal plate colder than the air
+    (the air settles on it), length scale area / perimeter.
+
+    >>> round(nu_plate_cold_side_up(1e6), 2)
+    8.54
+    """
+    if rayleigh <= 1e10:
+        return 0.27 * rayleigh ** 0.25
+    return 0.15 * rayleigh ** (1.0 / 3.0)
+
+
 def nu_horizontal_cylinder(rayleigh: float, prandtl: float) -> float:
     """Churchill-Chu average Nusselt number of an isothermal horizontal cylinder, Ra <= 1e12.
 
@@ -115,8 +129,8 @@ def convection_coefficient(orientation: str, length_m: float, surface_c: float,
                            air_c: float) -> float:
     """Average natural convection coefficient [W/(m^2 K)] of a surface in still air.
 
-    orientation : "vertical" (plate, L = height), "up" (hot side up, L = area / perimeter)
-                  or "cylinder" (horizontal cylinder, L = diameter)
+    orientation : "vertical" (plate, L = height), "up" (upper face of a horizontal plate,
+                  L = area / perimeter) or "cylinder" (horizontal cylinder, L = diameter)
 
     >>> round(convection_coefficient("vertical", 0.5, 60.0, 20.0), 2)
     4.95
@@ -126,7 +140,7 @@ def convection_coefficient(orientation: str, length_m: float, surface_c: float,
     if orientation == "vertical":
         nusselt = nu_vertical_plate(ra, pr)
     elif orientation == "up":
-        nusselt = nu_plate_hot_side_up(ra)
+        nusselt = nu_plate_hot_side_up(ra) if surface_c >= air_c else nu_plate_cold_side_up(ra)
     else:
         nusselt = nu_horizontal_cylinder(ra, pr)
     return nusselt * k / length_m

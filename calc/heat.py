@@ -23,6 +23,7 @@ from __future__ import annotations
 import math
 from typing import Callable
 
+from . import chart
 from .convection import convection_coefficient, radiation_coefficient
 from .errors import InputError
 from .registry import Field, Output, tool
@@ -71,6 +72,10 @@ def heat_load_from_throttle_kw(flow_lpm: float, dp_bar: float) -> float:
 def tank_surfaces(shape: str, length_mm: float, width_mm: float, height_mm: float,
                   diameter_mm: float, level_mm: float, which: str) -> list[Surface]:
     """The tank's shedding surfaces: the walls below the oil level, or all walls and the top.
+
+    A vertical cylinder's wall is taken as a vertical plate, fair when D >= 35 H / Gr^(1/4)
+    (Incropera et al., eq. 9.33), true of any tank-sized cylinder in air. A horizontal
+    cylinder's wetted shell takes the whole cylinder's average coefficient.
 
     >>> [(round(a, 3), o, round(l, 3)) for a, o, l in tank_surfaces(
     ...     "rectangular", 1000.0, 500.0, 800.0, 0.0, 400.0, "wetted")]
@@ -178,6 +183,52 @@ def time_to_temperature_min(load_kw: float, loss_kw: Callable[[float], float],
     return total * width / 3.0 / 60.0
 
 
+CHART_W, CHART_H = 400.0, 330.0
+_CHART_BOX = (52.0, 34.0, 334.0, 236.0)  # left, top, width, height of the plot, viewBox units
+
+
+def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_per_k: float,
+                 start_c: float, steady_c: float | None, target_c: float) -> str:
+    """SVG of the oil temperature against time for the tank alone, with the target and the
+    skin-burn line; the curve runs to 95 % of the way to steady (or to 150 degC)."""
+    end_c = 150.0 if steady_c is None else start_c + 0.95 * (steady_c - start_c)
+    temps = [start_c + (end_c - start_c) * k / 40 for k in range(41)]
+    hours = [0.0] + [time_to_temperature_min(load_kw, loss_kw, capacity_kj_per_k, start_c, t,
+                                             steady_c, steps=40) / 60.0 for t in temps[1:]]
+    shown = (start_c, end_c, target_c, end_c if steady_c is None else steady_c)
+    pad = max(5.0, 0.1 * (max(shown) - min(shown)))  # room for a label beyond the outer lines
+    t_low, t_high = min(shown) - pad, max(shown) + pad
+    ax = chart.Axes((0.0, max(hours[-1], 1e-3)), (t_low, t_high), _CHART_BOX)
+    left, _, width, _ = _CHART_BOX
+    # A warming curve leaves the upper left free: labels go there, above their lines; a cooling
+    # curve leaves the lower right free. Of two lines closer than a label, one label flips side.
+    warming = end_c > start_c
+    x_label, anchor = (left + 6, "start") if warming else (left + width - 4, "end")
+    marks = [(target_c, "target", "#2e6b2e", "6 3", f"target {target_c:.0f} °C")]
+    if t_low < BURN_C < t_high:
+        marks.append((BURN_C, "limit limit-burn", "#8b1a1a", "3 4", f"{BURN_C:.0f} °C burns skin"))
+    if steady_c is not None and t_low < steady_c < t_high:
+        marks.append((steady_c, "steady", "#12357a", "12 5", f"steady {steady_c:.0f} °C"))
+    marks.sort(key=lambda m: m[0], reverse=not warming)
+    body = [chart.frame(ax, chart.ticks_linear(0.0, hours[-1], 6), chart.ticks_linear(t_low, t_high),
+                        "Hours from start", "Oil temperature, °C", chart.short)]
+    for n, (temp, cls, colour, dash, label) in enumerate(marks):
+        after = marks[n + 1][0] if n + 1 < len(marks) else None
+        crowded = after is not None and abs(ax.y(after) - ax.y(temp)) < 2 * chart.TEXT_SIZE
+        above = warming != crowded
+        body += [chart.hline(ax, temp, cls, colour, 2.0, dash),
+                 chart.text(x_label, ax.y(temp) + (-5 if above else 17), label, cls.split()[-1] + "-label",
+                            anchor=anchor)]
+    body.append(chart.polyline([ax.point(h, t) for h, t in zip(hours, temps)], "oil-line",
+                               "#12357a", 4.0))
+    steady_text = "no steady state below 300 °C" if steady_c is None else f"steady {steady_c:.0f} °C"
+    title = f"Oil temperature of the tank alone from {start_c:.0f} °C: {steady_text}"
+    desc = ("Oil temperature against hours from start, with the target as a dashed line, the "
+            "skin-burn temperature as a dotted line and the steady temperature as a long-dashed "
+            "line.")
+    return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-warmup")
+
+
 def heat_capacity_kj_per_k(oil_l: float, steel_kg: float) -> float:
     """Lumped heat capacity [kJ/K] of the oil and the tank's steel.
 
@@ -267,6 +318,8 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
         "time_to_90": None if steady is None else time_to_temperature_min(
             load, loss, capacity, start_c, start_c + 0.9 * (steady - start_c), steady),
     })
+    if steady is None or abs(steady - start_c) > 0.5:
+        result.charts["warmup"] = warmup_chart(load, loss, capacity, start_c, steady, target)
     _verdicts(result, load, steady, target, cooler)
     result.note("Walls are taken at the oil temperature and the air as still: a fan, wind or "
                 "open air sheds more, an enclosure, a wall close by or sun on the tank less.")

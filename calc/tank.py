@@ -289,7 +289,7 @@ def tank_sizing(tank_volume: float, flow: float, application: str, working_level
         raise InputError("low_level", "the lowest level must be at or below the working level")
     lo_min, hi_min = FLOW_MINUTES[application]
     fill = working_level / 100.0
-    oil = tank_volume * fill
+    oil = tank_volume * working_level / 100.0
     dwell = dwell_minutes(oil, flow)
     ratio = dwell / air_release
     level_needed = 100.0 * DWELL_OK_RATIO * air_release * flow / tank_volume

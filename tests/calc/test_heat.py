@@ -135,3 +135,17 @@ def test_bad_inputs_name_the_field(changes, field):
     with pytest.raises(InputError) as err:
         run(**changes)
     assert err.value.field == field
+
+
+def test_warmup_chart_is_a_safe_svg_of_a_rising_curve():
+    import xml.etree.ElementTree as ET
+    svg = "{http://www.w3.org/2000/svg}"
+    root = ET.fromstring(run().charts["warmup"])
+    assert root.tag == svg + "svg" and root.get("role") == "img" and root[0].tag == svg + "title"
+    assert all("style" not in el.attrib and el.tag != svg + "script" for el in root.iter())
+    classes = [c for el in root.iter() for c in el.get("class", "").split()]
+    for needed in ("oil-line", "target", "steady", "limit-burn"):
+        assert needed in classes
+    line = next(el for el in root.iter(svg + "polyline") if "oil-line" in el.get("class"))
+    ys = [float(p.split(",")[1]) for p in line.get("points").split()]
+    assert all(b <= a for a, b in zip(ys, ys[1:]))  # warming: the curve climbs (SVG y falls)

@@ -5,7 +5,8 @@ import pytest
 ht = pytest.importorskip("ht")
 
 from calc.convection import (GRAVITY, KELVIN, air_properties, convection_coefficient,  # noqa: E402
-                             nu_horizontal_cylinder, nu_plate_hot_side_up, nu_vertical_plate)
+                             nu_horizontal_cylinder, nu_plate_cold_side_up, nu_plate_hot_side_up,
+                             nu_vertical_plate)
 
 RAYLEIGHS = [1e2, 1e4, 3.3e6, 1e7, 2e7, 1e9, 1e11]
 PRANDTLS = [0.69, 0.707, 0.72]
@@ -23,6 +24,14 @@ def test_hot_plate_facing_up_mcadams(ra):
     # ht.conv_free_immersed.Nu_horizontal_plate_McAdams, buoyancy-assisted (McAdams 1954).
     assert nu_plate_hot_side_up(ra) == pytest.approx(
         ht.Nu_horizontal_plate_McAdams(0.7, ra / 0.7, buoyancy=True), rel=1e-12)
+
+
+@pytest.mark.parametrize("ra", RAYLEIGHS + [1e10, 5e10])
+def test_cold_plate_facing_up_mcadams(ra):
+    # ht.conv_free_immersed.Nu_horizontal_plate_McAdams, buoyancy opposed (a tank top colder
+    # than the air, e.g. oil starting cold in a warm shop).
+    assert nu_plate_cold_side_up(ra) == pytest.approx(
+        ht.Nu_horizontal_plate_McAdams(0.7, ra / 0.7, buoyancy=False), rel=1e-12)
 
 
 @pytest.mark.parametrize("ra", RAYLEIGHS)
@@ -53,3 +62,11 @@ def test_free_convection_of_a_tank_wall_is_a_few_watts():
     # Order of magnitude (Incropera ch. 9 discussion, from memory): free convection in air gives
     # about 2 to 25 W/(m^2 K); a 0.5 m wall at 60 degC in 20 degC air sits near 5.
     assert 2.0 < convection_coefficient("vertical", 0.5, 60.0, 20.0) < 25.0
+
+
+def test_cold_top_uses_the_opposed_buoyancy_form():
+    # A top colder than the air: McAdams buoyancy=False in ht, with the same air properties.
+    nu, k, pr = air_properties((10.0 + 30.0) / 2)
+    gr = GRAVITY / (20.0 + KELVIN) * 20.0 * 0.3 ** 3 / nu ** 2
+    expected = ht.Nu_horizontal_plate_McAdams(pr, gr, buoyancy=False) * k / 0.3
+    assert convection_coefficient("up", 0.3, 10.0, 30.0) == pytest.approx(expected, rel=1e-12)
