@@ -153,7 +153,7 @@ def steady_temperature_c(load_kw: float, loss_kw: Callable[[float], float], air_
 
 def time_to_temperature_min(load_kw: float, loss_kw: Callable[[float], float],
                             capacity_kj_per_k: float, start_c: float, target_c: float,
-                            steady_c: float | None, steps: int = 400) -> float | None:
+                            steady_c: float | None, steps: int = 128) -> float | None:
     """Minutes for the lumped tank to go from `start_c` to `target_c` [degC].
 
     t = C * integral dT / (P - Q(T)); with T = T_steady - s e^u the integrand
@@ -194,7 +194,7 @@ def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_
     end_c = 150.0 if steady_c is None else start_c + 0.95 * (steady_c - start_c)
     temps = [start_c + (end_c - start_c) * k / 40 for k in range(41)]
     hours = [0.0] + [time_to_temperature_min(load_kw, loss_kw, capacity_kj_per_k, start_c, t,
-                                             steady_c, steps=40) / 60.0 for t in temps[1:]]
+                                             steady_c, steps=16) / 60.0 for t in temps[1:]]
     shown = (start_c, end_c, target_c, end_c if steady_c is None else steady_c)
     pad = max(5.0, 0.1 * (max(shown) - min(shown)))  # room for a label beyond the outer lines
     t_low, t_high = min(shown) - pad, max(shown) + pad
