@@ -102,7 +102,8 @@ def checklist_result(board: Scoreboard, readings: int, caution: str) -> Result:
         if top.score - runner_up >= STRONG:
             sentence = f"Start with: {top.title}; it stands well clear of the other causes."
         else:
-            sentence = f"Start with: {top.title}; then the next causes in the list, which score close."
+            sentence = (f"Start with: {top.title}; then the next causes in the list, which "
+                        "score close.")
         result.add("watch", BASIS, sentence)
     result.note(caution)
     result.note("The ranking says where to start, not what is wrong: confirm each cause with its "

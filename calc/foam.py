@@ -80,7 +80,8 @@ def grade_limits(grade: str) -> FoamLimits:
     for name, limits in GRADE_LIMITS:
         if name == grade:
             return limits
-    raise InputError("grade", f"must be one of {', '.join(g for g, _ in GRADE_LIMITS)}, not {grade!r}")
+    names = ", ".join(g for g, _ in GRADE_LIMITS)
+    raise InputError("grade", f"must be one of {names}, not {grade!r}")
 
 
 def foam_sequences(seq1: tuple[float | None, float | None], seq2: tuple[float | None, float | None],

@@ -7,7 +7,7 @@ The oil's readings are judged by calc.foam against the limits of its grade.
 
 from __future__ import annotations
 
-from . import foam
+from . import foam, tank
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .errors import InputError
@@ -26,26 +26,12 @@ CAUSES = (
 )
 MECHANICAL = ("suction-leak", "return-line", "tank-dwell")
 
-# Common practice: an industrial tank holds 3 to 5 minutes of pump flow.
-MIN_DWELL_MIN = 3.0
+# Common practice (calc.tank): an industrial tank holds 3 to 5 minutes of pump flow.
+MIN_DWELL_MIN = tank.FLOW_MINUTES["industrial"][0]
 
 CAUTION = ("Stop the machine, lock it out and relieve pressure (accumulators, raised loads) "
            "before opening any fitting; never feel for leaks with a hand: oil under pressure "
            "injects through skin. Oil and pump may be hot.")
-
-
-def dwell_time_min(oil_volume_l: float, pump_flow_lpm: float) -> float:
-    """Average time the oil spends in the tank, t = V / Q [min].
-
-    oil_volume_l : oil in the tank at its working level [L]
-    pump_flow_lpm : pump flow [L/min]
-
-    >>> dwell_time_min(300.0, 100.0)
-    3.0
-
-    Source: definition of residence time (volume over flow).
-    """
-    return oil_volume_l / pump_flow_lpm
 
 
 def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) -> None:
@@ -90,9 +76,9 @@ def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) 
 def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flow) -> None:
     if oil_volume is None or pump_flow is None:
         return
-    dwell = dwell_time_min(oil_volume, pump_flow)
+    dwell = tank.dwell_minutes(oil_volume, pump_flow)
     needed = air_release if air_release is not None else foam.grade_limits(grade).air_release_min
-    if dwell < needed:
+    if dwell < tank.DWELL_OK_RATIO * needed:
         board.add("tank-dwell", STRONG,
                   "the oil stays {0} in the tank, less than the {1} it needs to release air",
                   Q(dwell, "minutes"), Q(needed, "minutes"))
@@ -160,7 +146,8 @@ def checklist_aeration(foam_on_surface=False, milky_clears=False, pump_noise=Fal
         board.add_each(("suction-leak", "antifoam-overdose", "tank-dwell"), WEAK,
                        "spongy actuators: air carried into the circuit")
     if worse_cold:
-        board.add("suction-leak", WEAK, "worse when cold: the inlet vacuum is deepest with thick oil")
+        board.add("suction-leak", WEAK,
+                  "worse when cold: the inlet vacuum is deepest with thick oil")
         board.add("antifoam-overdose", WEAK, "worse when cold: air leaves thick oil slowly")
     if after_suction_work:
         board.add("suction-leak", STRONG, "started after work on the pump or suction line")
@@ -180,7 +167,7 @@ def checklist_aeration(foam_on_surface=False, milky_clears=False, pump_noise=Fal
                             air_release, seq1_tendency, seq1_stability, oil_volume)
     result = checklist_result(board, entered, CAUTION)
     result.values["dwell_time"] = (None if oil_volume is None
-                                   else dwell_time_min(oil_volume, pump_flow))
+                                   else tank.dwell_minutes(oil_volume, pump_flow))
     result.sources += ["Oil limits: ISO 11158 HM / DIN 51524-2 HLP, from memory (calc.foam)",
-                       "Tank of 3 to 5 minutes of pump flow: common practice"]
+                       "Dwell time against air release: common practice (calc.tank)"]
     return result

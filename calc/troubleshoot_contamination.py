@@ -8,9 +8,9 @@ the code.
 
 from __future__ import annotations
 
+from . import cleanliness
 from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
-from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q
 
@@ -22,62 +22,24 @@ CAUSES = (
     ("wear-debris", "Wear inside the pump, valves or cylinders"),
 )
 
-# Target ISO 4406 codes by the most dirt-sensitive component: common practice, typical of
-# filter makers' guidance, FROM MEMORY. The machine maker's target takes precedence.
-TARGETS = (
-    ("servo", "Servo valves", (16, 14, 11)),
-    ("proportional", "Proportional valves", (17, 15, 12)),
-    ("piston", "Piston pumps, high pressure", (18, 16, 13)),
-    ("general", "Vane or gear pumps, general industrial", (19, 17, 14)),
-)
-TARGET_CHOICES = tuple((key, label) for key, label, _ in TARGETS)
-ISO4406_MAX_SCALE = 28  # ISO 4406:2021, table 1: scale numbers 0 to 28 (from memory)
-
 CAUTION = ("Stop, lock out and relieve pressure (accumulators, raised loads) before changing a "
            "filter or opening a line; oil may be hot. Bag used filters and dispose of them and "
            "the oil by local rules.")
 
 
-def target_code(component: str) -> tuple[int, int, int]:
-    """The common-practice target code for the most sensitive component.
-
-    >>> target_code("servo")
-    (16, 14, 11)
-    """
-    for key, _, code in TARGETS:
-        if key == component:
-            return code
-    raise InputError("component", f"must be one of {', '.join(k for k, *_ in TARGETS)}")
-
-
-def steps_over(code: tuple[float, float, float], target: tuple[int, int, int]) -> float:
-    """The largest number of ISO 4406 steps by which the code exceeds the target (may be < 0).
-
-    Each step doubles the particle count (ISO 4406 scale), so 2 steps over is 4 times the count.
-
-    >>> steps_over((20, 18, 13), (18, 16, 13))
-    2
-    """
-    return max(c - t for c, t in zip(code, target))
-
-
 def _code_field(key: str, label: str) -> Field:
-    return Field(key, label, "count", None, min=0.0, max=float(ISO4406_MAX_SCALE), optional=True,
-                 help="One number of the code, e.g. 18 in 18/16/13.")
+    return Field(key, label, "count", None, min=0.0, max=float(cleanliness.TOP_SCALE),
+                 optional=True, help="One number of the code, e.g. 18 in 18/16/13; blank if "
+                                     "the lab gives none for this size.")
 
 
-def _check_code(code_4, code_6, code_14):
-    entered = [c for c in (code_4, code_6, code_14) if c is not None]
-    if not entered:
+def _code(code_4, code_6, code_14):
+    """The entered code (blank sizes as None), or None when nothing was entered."""
+    code = (code_4, code_6, code_14)
+    if all(c is None for c in code):
         return None
-    if len(entered) != 3:
-        missing = next(k for k, c in (("code_4", code_4), ("code_6", code_6),
-                                      ("code_14", code_14)) if c is None)
-        raise InputError(missing, "enter all three numbers of the ISO 4406 code, or none")
-    if not code_4 >= code_6 >= code_14:
-        raise InputError("code_6", "the code's numbers cannot rise from left to right: every "
-                                   "particle of 14 um is also counted at 6 and 4 um")
-    return (code_4, code_6, code_14)
+    cleanliness.check_code_order(code, "code_6")
+    return code
 
 
 @tool(
@@ -97,7 +59,9 @@ def _check_code(code_4, code_6, code_14):
         flag("metal_seen", "Shiny metal on the filter element or a magnet"),
         flag("pump_louder", "Pump louder or slower than it used to be"),
         Field("component", "Most dirt-sensitive component", "choice", "piston",
-              choices=TARGET_CHOICES),
+              choices=cleanliness.COMPONENT_CHOICES),
+        Field("pressure", "Working pressure", "pressure", None, min=0.0, max=1000.0,
+              optional=True, help="Above 140 bar the target is stricter; blank: up to 140 bar."),
         _code_field("code_4", "ISO 4406 code: first number (≥ 4 µm)"),
         _code_field("code_6", "ISO 4406 code: second number (≥ 6 µm)"),
         _code_field("code_14", "ISO 4406 code: third number (≥ 14 µm)"),
@@ -112,10 +76,11 @@ def _check_code(code_4, code_6, code_14):
 def checklist_contamination(filter_indicator=False, breather_open=False, dusty_site=False,
                             rods_scored=False, after_topup=False, after_repair=False,
                             valves_sticking=False, metal_seen=False, pump_louder=False,
-                            component="piston", code_4=None, code_6=None, code_14=None):
+                            component="piston", pressure=None, code_4=None, code_6=None,
+                            code_14=None):
     """Rank the ways dirt gets into the oil from symptoms and the cleanliness code."""
-    code = _check_code(code_4, code_6, code_14)
-    target = target_code(component)
+    code = _code(code_4, code_6, code_14)
+    target = cleanliness.target_code(component, 0.0 if pressure is None else pressure)
     board = Scoreboard(CAUSES)
     if filter_indicator:
         board.add("filter-bypass", STRONG, "filter indicator shows blocked or bypass")
@@ -139,8 +104,9 @@ def checklist_contamination(filter_indicator=False, breather_open=False, dusty_s
         board.add("wear-debris", MODERATE, "pump louder or slower: wear")
     over = None
     if code is not None:
-        over = steps_over(code, target)
-        shown = "/".join(f"{c:g}" for c in code)
+        over = cleanliness.worst_excess(code, target)
+    if over is not None:
+        shown = "/".join("-" if c is None else f"{c:g}" for c in code)
         aim = "/".join(str(t) for t in target)
         if over >= 1:
             board.add_each(("breather-ingress", "filter-bypass", "dirty-topup", "repair-dirt"),
@@ -155,7 +121,7 @@ def checklist_contamination(filter_indicator=False, breather_open=False, dusty_s
     result.values["target"] = "/".join(str(t) for t in target)
     result.values["steps_over"] = None if over is None else float(over)
     if over is not None:
-        basis = COMMON_PRACTICE + ", target codes from memory"
+        basis = COMMON_PRACTICE + ", target codes from memory (calc.cleanliness)"
         if over >= 3:
             result.add("act", basis, "The code is {0} steps over the target: clean the oil now "
                        "and find the way in.", Q(over, "count"))
@@ -165,5 +131,6 @@ def checklist_contamination(filter_indicator=False, breather_open=False, dusty_s
         else:
             result.add("ok", basis, "The code meets the target for this component.")
     result.sources += ["ISO 4406 code: each scale step doubles the count",
-                       "Target codes by component: common practice, from memory"]
+                       "Target codes by component and pressure: common practice, from memory "
+                       "(calc.cleanliness)"]
     return result

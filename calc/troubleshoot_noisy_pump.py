@@ -8,6 +8,7 @@ speed in the suction line.
 
 from __future__ import annotations
 
+from . import suction
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
@@ -21,9 +22,9 @@ CAUSES = (
     ("pump-wear", "Worn or damaged pump"),
 )
 
-# Common practice, from memory: many vane and gear pumps need at least about 0.8 bar absolute
-# at the inlet; the pump maker's figure takes precedence.
-MIN_INLET_BAR_ABS = 0.8
+# Common practice (calc.suction): industrial pumps need at least about 0.8 bar absolute at the
+# inlet; the pump maker's figure takes precedence.
+MIN_INLET_BAR_ABS = suction.P_MIN_BAR
 # Common practice: suction lines are sized for about 0.5 to 1.2 m/s.
 MAX_SUCTION_VELOCITY = 1.2
 

@@ -8,6 +8,7 @@ is at the temperature entered here.
 
 from __future__ import annotations
 
+from . import air
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
@@ -23,7 +24,8 @@ CAUSES = (
 )
 
 # Common practice, from memory: well-deaerated oil in service carries well under 1 % air by
-# volume; from about 1 % the column turns noticeably soft at low and medium pressure.
+# volume; from about 1 % the column turns noticeably soft at low and medium pressure. Used
+# when no working pressure is entered; with one, the stiffness loss of calc.air decides.
 AIR_WATCH_PCT = 1.0
 # Common practice: below about 15 degC most hydraulic oils are several times thicker than at
 # working temperature; above 30 degC cold oil is not the cause.
@@ -33,6 +35,43 @@ WARM_C = 30.0
 CAUTION = ("Before bleeding air or opening a line, stop the machine, lower or block raised "
            "loads, relieve accumulators and lock out; bleed through the proper bleed screws "
            "only, never by loosening a fitting under pressure. Keep clear of moving parts.")
+
+
+def stiffness_loss_pct(air_pct: float, pressure_bar: float) -> float:
+    """Loss of stiffness [%] of oil holding `air_pct` free air (at atmospheric) at a gauge pressure.
+
+    loss = 100 (1 - K_eff / K_oil), with the air compressed isothermally to the working
+    pressure and K_eff from the mixture rule of calc.air (1/K = (1-x)/K_oil + x/p).
+
+    >>> round(stiffness_loss_pct(1.0, 10.0), 1)
+    57.4
+
+    Source: calc.air (Boyle's law and the mixture rule, Merritt 1967, from memory).
+    """
+    p_abs = pressure_bar + air.P_ATM_BAR
+    x = air.air_fraction_at_pressure(air_pct / 100.0, p_abs)
+    return 100.0 * (1.0 - air.effective_bulk_modulus(air.K_OIL_BAR, x, p_abs) / air.K_OIL_BAR)
+
+
+def _score_air(board: Scoreboard, air_content, pressure):
+    """Points for an entered air content; the stiffness loss [%] when a pressure is known."""
+    if air_content is None:
+        return None
+    if pressure is None:
+        if air_content >= AIR_WATCH_PCT:
+            board.add("entrained-air", STRONG, "{0} air in the oil, at or above {1}",
+                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+        else:
+            board.add("entrained-air", AGAINST, "{0} air in the oil, under {1}",
+                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+        return None
+    loss = stiffness_loss_pct(air_content, pressure)
+    args = (Q(air_content, "percent"), Q(pressure, "pressure"), Q(loss, "percent"))
+    if loss >= air.LOSS_WATCH_PCT:
+        board.add("entrained-air", STRONG, "{0} air makes the oil {2} softer at {1}", *args)
+    else:
+        board.add("entrained-air", AGAINST, "{0} air makes the oil only {2} softer at {1}", *args)
+    return loss
 
 
 @tool(
@@ -55,12 +94,16 @@ CAUTION = ("Before bleeding air or opening a line, stop the machine, lower or bl
               optional=True),
         Field("air_content", "Entrained air, by volume at atmospheric pressure", "percent", None,
               min=0.0, max=50.0, optional=True, help="From a sample or the air-stiffness tool."),
+        Field("pressure", "Working pressure (gauge)", "pressure", None, min=0.0, max=1000.0,
+              optional=True, help="With the air content, gives the loss of stiffness."),
     ),
-    outputs=RANKING_OUTPUTS,
+    outputs=(*RANKING_OUTPUTS,
+             Output("stiffness_loss", "Stiffness lost to the air", "percent")),
 )
 def checklist_spongy(foam_or_cloudy=False, after_repair=False, springy_stop=False,
                      jerky_slow=False, worse_cold=False, drifts=False, slow_under_load=False,
-                     long_hoses=False, pressure_drops=False, temp=None, air_content=None):
+                     long_hoses=False, pressure_drops=False, temp=None, air_content=None,
+                     pressure=None):
     """Rank the causes of spongy or sluggish motion from symptoms and readings."""
     board = Scoreboard(CAUSES)
     if foam_or_cloudy:
@@ -89,16 +132,12 @@ def checklist_spongy(foam_or_cloudy=False, after_repair=False, springy_stop=Fals
                       "when warm", Q(temp, "temperature"), Q(COLD_C, "temperature"))
         elif temp > WARM_C:
             board.add("cold-oil", AGAINST, "oil at {0}: warm enough", Q(temp, "temperature"))
-    if air_content is not None:
-        if air_content >= AIR_WATCH_PCT:
-            board.add("entrained-air", STRONG, "{0} air in the oil, at or above {1}",
-                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
-        else:
-            board.add("entrained-air", AGAINST, "{0} air in the oil, under {1}",
-                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+    loss = _score_air(board, air_content, pressure)
     entered = count_entered(foam_or_cloudy, after_repair, springy_stop, jerky_slow, worse_cold,
                             drifts, slow_under_load, long_hoses, pressure_drops, temp,
                             air_content)
     result = checklist_result(board, entered, CAUTION)
-    result.sources.append("Air content 1 %, oil below 15 °C: common practice, from memory")
+    result.values["stiffness_loss"] = loss
+    result.sources += ["Air content 1 %, oil below 15 °C: common practice, from memory",
+                       "Stiffness loss: calc.air mixture rule (air-stiffness tool)"]
     return result

@@ -2,11 +2,13 @@
 
 Symptoms and readings (water content in ppm, % saturation from an inline sensor,
 oil temperature) ranked over the causes of site_src/checklists/water.md.
-Where the water-in-oil tool has turned a reading into % saturation, enter that.
+Without a sensor reading, the % saturation is worked out from the ppm and the oil
+temperature with calc.water's saturation line for the oil type.
 """
 
 from __future__ import annotations
 
+from . import water
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
@@ -30,6 +32,8 @@ WATCH_SATURATION_PCT = 80.0
 FREE_SATURATION_PCT = 100.0
 # Common practice: oil that runs below about 40 degC does not drive off the water it takes in.
 COOL_RUNNING_C = 40.0
+
+OIL_CHOICES = tuple(c for c in water.OIL_CHOICES if c[0] != water.OWN_CALIBRATION)
 
 CAUTION = ("Drain water only with the machine stopped, locked out and the tank at atmospheric "
            "pressure; oil may be hot. Stop a cooler's water supply and relieve both circuits "
@@ -62,15 +66,16 @@ def _score_readings(board: Scoreboard, ppm, rh, temp) -> list[tuple]:
                              Q(ppm, "ppm"), Q(WATCH_PPM, "ppm")))
     if rh is not None:
         if rh >= FREE_SATURATION_PCT:
-            board.add("emulsion", WEAK, "sensor at {0}: free water present in the oil",
+            board.add("emulsion", WEAK, "water at {0} of saturation: free water present",
                       Q(rh, "percent"))
-            verdicts.append(("act", "Sensor at {0}: the oil holds all the water it can and free "
-                             "water is present; drain it and find the way in.", Q(rh, "percent")))
+            verdicts.append(("act", "Water at {0} of saturation: the oil holds all it can and "
+                             "free water is present; drain it and find the way in.",
+                             Q(rh, "percent")))
         elif rh >= WATCH_SATURATION_PCT:
-            verdicts.append(("watch", "Sensor at {0}: free water forms when the oil cools; check "
-                             "with the water-in-oil tool.", Q(rh, "percent")))
+            verdicts.append(("watch", "Water at {0} of saturation: free water forms when the "
+                             "oil cools; check with the water-in-oil tool.", Q(rh, "percent")))
         else:
-            verdicts.append(("ok", "Sensor at {0}: the water stays dissolved at this "
+            verdicts.append(("ok", "Water at {0} of saturation: it stays dissolved at this "
                              "temperature.", Q(rh, "percent")))
     if temp is not None and temp < COOL_RUNNING_C:
         board.add("condensation", WEAK, "oil runs at {0}, below {1}: too cool to drive off water",
@@ -102,13 +107,17 @@ def _score_readings(board: Scoreboard, ppm, rh, temp) -> list[tuple]:
               optional=True, help="What an inline water sensor shows."),
         Field("temp", "Oil temperature in service", "temperature", None, min=-40.0, max=150.0,
               optional=True),
+        Field("oil", "Oil type", "choice", "mineral-aw", choices=OIL_CHOICES,
+              help="Sets how much water the oil holds dissolved (calc.water presets)."),
     ),
-    outputs=RANKING_OUTPUTS,
+    outputs=(*RANKING_OUTPUTS,
+             Output("saturation", "Water against saturation", "percent",
+                    "The sensor's reading, or worked out from ppm and temperature.")),
 )
 def checklist_water(milky_oil=False, free_water=False, cools_overnight=False, rust_top=False,
                     washdown=False, seals_worn=False, water_cooler=False,
                     cooling_water_lost=False, after_topup=False, drums_outside=False,
-                    ppm=None, rh=None, temp=None):
+                    ppm=None, rh=None, temp=None, oil="mineral-aw"):
     """Rank the ways water gets into the oil from symptoms and readings."""
     board = Scoreboard(CAUSES)
     if milky_oil:
@@ -135,13 +144,23 @@ def checklist_water(milky_oil=False, free_water=False, cools_overnight=False, ru
         board.add("emulsion", WEAK, "a different oil may not shed water")
     if drums_outside:
         board.add("wet-topup", MODERATE, "drums outside breathe in rain water")
-    verdicts = _score_readings(board, ppm, rh, temp)
+    saturation = rh
+    if rh is None and ppm is not None and temp is not None:
+        line = water.saturation_line(oil)
+        saturation = water.relative_saturation_pct(ppm, temp, line.a, line.b)
+    verdicts = _score_readings(board, ppm, saturation, temp)
     entered = count_entered(milky_oil, free_water, cools_overnight, rust_top, washdown,
                             seals_worn, water_cooler, cooling_water_lost, after_topup,
                             drums_outside, ppm, rh, temp)
     result = checklist_result(board, entered, CAUTION)
+    result.values["saturation"] = saturation
+    if saturation is not None and rh is None:
+        result.note("Saturation worked out from {0} at {1} with the preset line of this oil type "
+                    "(from memory); the water-in-oil tool takes an own calibration.",
+                    Q(ppm, "ppm"), Q(temp, "temperature"))
     for level, template, *args in verdicts:
         result.add(level, COMMON_PRACTICE + ", from memory", template, *args)
+    result.sources += ["Saturation: calc.water preset lines, from memory"]
     result.sources.append("Water limits 200 / 500 / 1000 ppm and 80 / 100 % saturation: "
                           "common practice, from memory")
     return result

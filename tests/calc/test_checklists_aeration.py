@@ -3,7 +3,7 @@
 import pytest
 
 from calc import bridge
-from calc.troubleshoot_aeration import checklist_aeration, dwell_time_min
+from calc.troubleshoot_aeration import checklist_aeration
 
 OIL_SIDE = {"antifoam-overdose", "contaminated-oil", "wrong-topup", "antifoam-lost"}
 MECHANICAL = {"suction-leak", "return-line", "tank-dwell"}
@@ -56,10 +56,18 @@ def test_splashing_return_outranks_everything_else_ticked_once():
 
 def test_short_dwell_against_air_release():
     # Definition: 150 L / 100 L/min = 1.5 min in the tank, less than the 10 min VG 46 needs.
-    assert dwell_time_min(150.0, 100.0) == 1.5
     result = checklist_aeration(oil_volume=150.0, pump_flow=100.0)
     assert _order(result)[0] == "tank-dwell"
     assert result.values["dwell_time"] == 1.5
+
+
+def test_dwell_under_three_minutes_of_flow_when_air_release_is_fast():
+    # VG 32 releases air in 5 min (from memory); 400 L / 100 L/min = 4 min is under that,
+    # 700 L / 250 L/min = 2.8 min is under the 3 min of flow common practice asks (calc.tank).
+    short = checklist_aeration(grade="VG 32", oil_volume=400.0, pump_flow=100.0)
+    assert short.ranked[0].key == "tank-dwell" and short.ranked[0].score == 3.0
+    result = checklist_aeration(grade="VG 32", air_release=2.0, oil_volume=700.0, pump_flow=250.0)
+    assert [c.score for c in result.ranked if c.key == "tank-dwell"] == [2.0]
 
 
 def test_volume_without_flow_names_the_missing_field():

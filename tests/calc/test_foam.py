@@ -20,7 +20,8 @@ def test_grade_presets_are_the_recalled_limits(grade, minutes):
 
 def test_air_release_limit_grows_with_viscosity():
     # Thicker oil releases air more slowly (Stokes' law: rise speed ~ 1 / viscosity).
-    times = [grade_limits(g).air_release_min for g in ("VG 22", "VG 32", "VG 46", "VG 68", "VG 100")]
+    grades = ("VG 22", "VG 32", "VG 46", "VG 68", "VG 100")
+    times = [grade_limits(g).air_release_min for g in grades]
     assert times == sorted(times)
 
 
