@@ -277,7 +277,7 @@ def tank_volume_needed_l(flow_lpm: float, minutes: float, fill_fraction: float) 
         Output("low_ratio", "Dwell / air-release time at the low level", "ratio"),
         Output("level_needed", "Lowest level for a dwell of the air-release time", _PCT,
                "Blank when even a full tank falls short."),
-        Output("tank_needed", "Tank volume for the common-practice minimum", _V,
+        Output("tank_needed", "Tank volume needed", _V,
                "The larger of: the common-practice minutes of flow, and the air-release time "
                "of flow at the working level."),
     ),
