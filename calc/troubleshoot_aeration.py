@@ -35,42 +35,40 @@ CAUTION = ("Stop the machine, lock it out and relieve pressure (accumulators, ra
 
 
 def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) -> None:
+    """Points for the lab readings, read by calc.foam's patterns against the grade's limits."""
     limits = foam.grade_limits(grade)
-    ar_limit = limits.air_release_min
-    foam_known = tendency is not None or stability is not None
-    foam_stable = stability is not None and stability > limits.stability
-    foam_tall = tendency is not None and tendency > limits.tendency_24
-    if foam_stable:
+    sequences = foam.foam_sequences((tendency, stability), (None, None), (None, None), limits)
+    patterns = foam.foam_patterns(sequences, air_release, limits, machine_foams=True)
+    if "contamination" in patterns:
         board.add("contaminated-oil", STRONG,
                   "sequence I: {0} of foam still standing after settling, against {1} allowed",
                   Q(stability, "volume_ml"), Q(limits.stability, "volume_ml"))
-    if foam_tall:
-        if not foam_stable:
-            board.add("antifoam-lost", STRONG,
-                      "sequence I: foam tendency {0} against {1} allowed, and the foam breaks",
-                      Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+    if "antifoam-lost" in patterns:
+        board.add("antifoam-lost", STRONG,
+                  "sequence I: foam tendency {0} against {1} allowed, and the foam breaks",
+                  Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+    if tendency is not None and tendency > limits.tendency_24:
         board.add("wrong-topup", WEAK, "sequence I: foam tendency {0} against {1} allowed",
                   Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
-    foam_passes = foam_known and not (foam_stable or foam_tall)
-    if foam_passes:
+    elif sequences and "contamination" not in patterns:
         board.add_each(("contaminated-oil", "antifoam-lost"), AGAINST,
                        f"sequence I foam within the limits for {grade}")
     if air_release is None:
         return
-    args = (Q(air_release, "minutes"), Q(ar_limit, "minutes"))
-    if air_release > ar_limit:
+    args = (Q(air_release, "minutes"), Q(limits.air_release_min, "minutes"))
+    if air_release > limits.air_release_min:
         reason = f"air release {{0}} against {{1}} allowed for {grade}"
         board.add_each(("contaminated-oil", "antifoam-overdose"), MODERATE, reason, *args)
         board.add("wrong-topup", WEAK, reason, *args)
-        if foam_passes:
-            board.add("antifoam-overdose", STRONG,
-                      "foam passes while the air release is long: typical of too much antifoam")
     else:
         board.add("antifoam-overdose", AGAINST,
                   f"air release {{0}}, within the {{1}} allowed for {grade}", *args)
-        if foam_passes:
-            board.add_each(MECHANICAL, MODERATE, "the oil passes its foam and air-release tests, "
-                                                 "so the air comes from the machine")
+    if "antifoam-overdose" in patterns:
+        board.add("antifoam-overdose", STRONG,
+                  "foam passes while the air release is long: typical of too much antifoam")
+    if "mechanical" in patterns and sequences:
+        board.add_each(MECHANICAL, MODERATE, "the oil passes its foam and air-release tests, "
+                                             "so the air comes from the machine")
 
 
 def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flow) -> None:

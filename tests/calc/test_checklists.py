@@ -62,7 +62,7 @@ def test_page_format_is_printable(tool_id):
         assert cautions, f"{key} has no caution"
         for check in checks:
             for used in re.findall(r"\{tool=([a-z0-9-]+)\}", check):
-                assert used in CORE_TOOLS, used
+                assert used in CORE_TOOLS and used in registry.tools(), used
             if "{tool=" in check:  # the tool reference closes the line
                 assert re.search(r"\{tool=[a-z0-9-]+\}$", check.rstrip()), check
 

@@ -85,3 +85,9 @@ def test_top_up_points_to_the_oil_that_went_in():
 def test_bridge_returns_every_cause(ticks):
     answer = bridge.run("checklist-aeration", ticks)
     assert len(answer["ranked"]) == 7
+
+
+def test_one_good_test_alone_does_not_clear_the_oil():
+    # Air release within 10 min (from memory) but no foam result: mechanical causes get no bonus.
+    result = checklist_aeration(foam_on_surface=True, air_release=6.0)
+    assert [c.score for c in result.ranked if c.key in MECHANICAL] == [1.0, 1.0, 1.0]
