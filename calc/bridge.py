@@ -68,6 +68,44 @@ def present(found: registry.Tool, result: Result, system: str) -> dict:
     }
 
 
+def reexpress(tool_id: str, inputs: dict, from_system: str, to_system: str) -> dict:
+    """Typed inputs of one tool re-expressed in another unit system, as text for the form.
+
+    Fields that do not parse are left as typed, so nothing the user entered is lost.
+
+    >>> reexpress("viscosity-at-temperature", {"temp": "60"}, "metric", "us")
+    {'temp': '140'}
+    """
+    found = registry.get(tool_id)
+    from_system, to_system = units.check_system(from_system), units.check_system(to_system)
+    shown = {}
+    for key, raw in inputs.items():
+        try:
+            f = found.field(key)
+        except KeyError:
+            continue
+        if f.is_choice or raw is None or not str(raw).strip():
+            shown[key] = raw
+            continue
+        try:
+            metric = units.to_metric(units.parse_number(raw, key), f.quantity, from_system)
+        except InputError:
+            shown[key] = raw
+            continue
+        shown[key] = units.format_input(units.from_metric(metric, f.quantity, to_system))
+    return shown
+
+
+def reexpress_json(request: str) -> str:
+    """The worker's entry for a unit switch: {tool, inputs, from, to} -> {key: text}."""
+    message = json.loads(request)
+    try:
+        return json.dumps(reexpress(message["tool"], message.get("inputs") or {},
+                                    message.get("from"), message.get("to")), ensure_ascii=False)
+    except InputError as err:
+        return json.dumps({"errors": err.as_list()})
+
+
 def run_json(request: str) -> str:
     """The worker's entry point: one JSON request string in, one JSON answer string out."""
     try:

@@ -209,3 +209,13 @@ def format_number(value: float, digits: int = 3) -> str:
     if decimals > 0:
         return f"{value:.{decimals}f}"
     return f"{int(round(value, decimals))}"
+
+
+def format_input(value: float) -> str:
+    """A value as it is put back into a form field: 4 significant figures, no trailing zeros.
+
+    >>> format_input(140.0), format_input(6.8), format_input(0.000123456)
+    ('140', '6.8', '0.0001235')
+    """
+    text = format_number(value, 4)
+    return text.rstrip("0").rstrip(".") if "." in text else text

@@ -1,0 +1,216 @@
+"""Build the offline app into dist/, and serve it.
+
+    python build.py            build dist/
+    python build.py serve      build, then serve dist/ on http://127.0.0.1:8000
+
+Steps: render the page with jinja2 (each tool's form from the registry, help and
+checklists from markdown), pack calc as a pure-Python wheel, add it to a copy of
+Pyodide's lock file with pyodide-build's lock-file command, copy the pinned
+Pyodide core, write icons, the web manifest and the service worker with its
+precache list and build hash. Every URL is relative, so dist/ works under any
+path of any static host.
+"""
+
+from __future__ import annotations
+
+import argparse
+import base64
+import hashlib
+import json
+import os
+import shutil
+import subprocess
+import sys
+import tempfile
+import tomllib
+import zipfile
+from pathlib import Path
+
+import jinja2
+
+from sitebuild import content, icons, serve
+
+ROOT = Path(__file__).resolve().parent
+SITE = ROOT / "site_src"
+DIST = ROOT / "dist"
+PYODIDE_NPM = ROOT / "node_modules" / "pyodide"
+# What the worker needs of the Pyodide core: the module loader, the interpreter and its stdlib.
+PYODIDE_CORE = ("pyodide.mjs", "pyodide.asm.mjs", "pyodide.asm.wasm", "python_stdlib.zip")
+# The wheel's files land in the version's deterministic zip: same sources, same bytes.
+ZIP_TIME = (2020, 1, 1, 0, 0, 0)
+
+
+def project_meta() -> dict:
+    with open(ROOT / "pyproject.toml", "rb") as handle:
+        return tomllib.load(handle)["project"]
+
+
+def build_wheel(out_dir: Path) -> Path:
+    """calc as a py3-none-any wheel, written directly (pure Python needs no build backend)."""
+    meta = project_meta()
+    name, version = meta["name"], meta["version"]
+    dist_info = f"{name}-{version}.dist-info"
+    entries: list[tuple[str, bytes]] = []
+    for path in sorted((ROOT / "calc").rglob("*.py")):
+        entries.append((path.relative_to(ROOT).as_posix(), path.read_bytes()))
+    entries.append((f"{dist_info}/METADATA", (
+        f"Metadata-Version: 2.1\nName: {name}\nVersion: {version}\n"
+        f"Summary: {meta['description']}\nRequires-Python: {meta['requires-python']}\n").encode()))
+    entries.append((f"{dist_info}/WHEEL", (
+        "Wheel-Version: 1.0\nGenerator: sumpside-build\nRoot-Is-Purelib: true\n"
+        "Tag: py3-none-any\n").encode()))
+    entries.append((f"{dist_info}/top_level.txt", b"calc\n"))
+    record = []
+    for arcname, data in entries:
+        digest = base64.urlsafe_b64encode(hashlib.sha256(data).digest()).rstrip(b"=").decode()
+        record.append(f"{arcname},sha256={digest},{len(data)}")
+    record.append(f"{dist_info}/RECORD,,")
+    entries.append((f"{dist_info}/RECORD", ("\n".join(record) + "\n").encode()))
+    out_dir.mkdir(parents=True, exist_ok=True)
+    wheel = out_dir / f"{name}-{version}-py3-none-any.whl"
+    with zipfile.ZipFile(wheel, "w", zipfile.ZIP_DEFLATED) as archive:
+        for arcname, data in entries:
+            info = zipfile.ZipInfo(arcname, ZIP_TIME)
+            info.compress_type = zipfile.ZIP_DEFLATED
+            info.external_attr = 0o644 << 16
+            archive.writestr(info, data)
+    return wheel
+
+
+def _pyodide_cli() -> str:
+    beside = Path(sys.executable).with_name("pyodide")
+    found = str(beside) if beside.exists() else shutil.which("pyodide")
+    if not found:
+        sys.exit("build: the `pyodide` command (pyodide-build) is missing: run `make serve` "
+                 "or install the dev extra in a Python >= 3.12 environment")
+    return found
+
+
+def write_lock_file(wheel: Path, out_dir: Path) -> None:
+    """Pyodide's lock file, cut to the packages this build ships, plus the calc wheel."""
+    original = json.loads((PYODIDE_NPM / "pyodide-lock.json").read_text())
+    # The npm package carries the core only: no package wheel it lists could be loaded.
+    cut = {"info": original["info"], "packages": {}}
+    with tempfile.TemporaryDirectory() as tmp:
+        source = Path(tmp) / "pyodide-lock.json"
+        source.write_text(json.dumps(cut))
+        subprocess.run([_pyodide_cli(), "lockfile", "add-wheels", "--input", str(source),
+                        "--output", str(out_dir / "pyodide-lock.json"),
+                        "--base-path", str(out_dir), str(wheel)],
+                       check=True, stdout=subprocess.DEVNULL)
+
+
+def copy_pyodide(out_dir: Path) -> str:
+    if not PYODIDE_NPM.is_dir():
+        sys.exit("build: node_modules/pyodide is missing: run `npm ci` first")
+    version = json.loads((PYODIDE_NPM / "package.json").read_text())["version"]
+    out_dir.mkdir(parents=True, exist_ok=True)
+    for name in PYODIDE_CORE:
+        shutil.copy2(PYODIDE_NPM / name, out_dir / name)
+    return version
+
+
+BUILD_ID_TOKEN = "__SUMPSIDE_BUILD_ID__"
+
+
+def render_pages(dist: Path, build_id: str, pyodide_version: str) -> None:
+    env = jinja2.Environment(loader=jinja2.FileSystemLoader(SITE / "templates"),
+                             autoescape=jinja2.select_autoescape(["html"]),
+                             undefined=jinja2.StrictUndefined, trim_blocks=True, lstrip_blocks=True)
+    site = content.load(SITE)
+    page = env.get_template("index.html").render(
+        site=site, build_id=build_id, pyodide_version=pyodide_version,
+        version=project_meta()["version"])
+    (dist / "index.html").write_text(page, encoding="utf-8")
+
+
+def copy_static(dist: Path) -> None:
+    for sub in ("css", "js"):
+        shutil.copytree(SITE / sub, dist / sub, dirs_exist_ok=True)
+    shutil.copy2(SITE / "worker.js", dist / "worker.js")
+
+
+def write_manifest(dist: Path) -> None:
+    meta = project_meta()
+    manifest = {
+        "name": "Sumpside — hydraulic oil field kit",
+        "short_name": "Sumpside",
+        "description": meta["description"],
+        "start_url": "./",
+        "scope": "./",
+        "display": "standalone",
+        "orientation": "any",
+        "background_color": "#ffffff",
+        "theme_color": icons.BACKGROUND_HEX,
+        "icons": [
+            {"src": "icons/icon-192.png", "sizes": "192x192", "type": "image/png", "purpose": "any"},
+            {"src": "icons/icon-512.png", "sizes": "512x512", "type": "image/png", "purpose": "any"},
+            {"src": "icons/maskable-512.png", "sizes": "512x512", "type": "image/png",
+             "purpose": "maskable"},
+        ],
+    }
+    (dist / "manifest.webmanifest").write_text(json.dumps(manifest, indent=2), encoding="utf-8")
+
+
+def precache_list(dist: Path) -> list[str]:
+    """Every file of the build but the service worker itself, relative to dist/."""
+    files = sorted(p.relative_to(dist).as_posix() for p in dist.rglob("*") if p.is_file())
+    return [f for f in files if f != "sw.js"]
+
+
+def build_hash(dist: Path, files: list[str]) -> str:
+    digest = hashlib.sha256()
+    for name in files:
+        digest.update(name.encode() + b"\0" + (dist / name).read_bytes())
+    return digest.hexdigest()[:12]
+
+
+def write_service_worker(dist: Path, files: list[str], build_id: str) -> None:
+    template = (SITE / "sw.js").read_text(encoding="utf-8")
+    precache = ["./"] + [f for f in files if f != "index.html"] + ["index.html"]
+    text = template.replace('"__BUILD_ID__"', json.dumps(build_id)).replace(
+        "[/* __PRECACHE__ */]", json.dumps(precache, indent=2))
+    (dist / "sw.js").write_text(text, encoding="utf-8")
+
+
+def build(dist: Path = DIST) -> str:
+    """Build the whole app into `dist`; returns the build id."""
+    if dist.exists():
+        shutil.rmtree(dist)
+    dist.mkdir(parents=True)
+    pyodide_dir = dist / "pyodide"
+    pyodide_version = copy_pyodide(pyodide_dir)
+    wheel = build_wheel(pyodide_dir)
+    write_lock_file(wheel, pyodide_dir)
+    copy_static(dist)
+    icons.write_icons(dist / "icons")
+    write_manifest(dist)
+    # The page shows its build id: hash the page with a token in the id's place, then fill it in.
+    render_pages(dist, BUILD_ID_TOKEN, pyodide_version)
+    build_id = build_hash(dist, precache_list(dist))
+    page = dist / "index.html"
+    page.write_text(page.read_text(encoding="utf-8").replace(BUILD_ID_TOKEN, build_id),
+                    encoding="utf-8")
+    (dist / "build.json").write_text(json.dumps(
+        {"build": build_id, "pyodide": pyodide_version, "version": project_meta()["version"],
+         "wheel": wheel.name}, indent=2), encoding="utf-8")
+    write_service_worker(dist, precache_list(dist), build_id)
+    return build_id
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("command", nargs="?", default="build", choices=("build", "serve"))
+    parser.add_argument("--port", type=int, default=int(os.environ.get("PORT", "8000")))
+    parser.add_argument("--no-build", action="store_true", help="serve dist/ as it is")
+    args = parser.parse_args(argv)
+    if not (args.command == "serve" and args.no_build):
+        build_id = build()
+        print(f"built dist/ (build {build_id})")
+    if args.command == "serve":
+        serve.serve_forever(DIST, port=args.port)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

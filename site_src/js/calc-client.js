@@ -1,0 +1,37 @@
+// The page's side of the worker: one request, one answer, matched by id.
+// The worker boots Pyodide; nothing here waits for it except the answers themselves.
+
+export function startCalculator(onStatus) {
+  const worker = new Worker(new URL("../worker.js", import.meta.url), { type: "module" });
+  const pending = new Map();
+  let nextId = 1;
+  let readyResolve;
+  const ready = new Promise((resolve) => { readyResolve = resolve; });
+
+  worker.onmessage = (event) => {
+    const msg = event.data;
+    if (msg.type === "status") onStatus(msg);
+    else if (msg.type === "ready") { onStatus({ state: "ready", ...msg }); readyResolve(msg); }
+    else if (msg.type === "answer" && pending.has(msg.id)) {
+      pending.get(msg.id)(msg.answer);
+      pending.delete(msg.id);
+    }
+  };
+  worker.onerror = (event) => {
+    onStatus({ state: "failed", text: "Calculator failed to start: " + (event.message || "worker error") });
+  };
+
+  function ask(op, request) {
+    const id = nextId++;
+    return new Promise((resolve) => {
+      pending.set(id, resolve);
+      worker.postMessage({ id, op, request });
+    });
+  }
+
+  return {
+    ready,
+    run: (tool, inputs, units) => ask("run", { tool, inputs, units }),
+    reexpress: (tool, inputs, from, to) => ask("reexpress", { tool, inputs, from, to }),
+  };
+}

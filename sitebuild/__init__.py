@@ -1,0 +1,1 @@
+"""Build-time helpers of build.py: content loading, icons, the local static server."""

@@ -1,0 +1,119 @@
+"""Browser fixtures: the built dist/ served on 127.0.0.1, Debian's Chromium driven by Playwright."""
+
+from __future__ import annotations
+
+import os
+import shutil
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parents[2]
+DIST = ROOT / "dist"
+CHROMIUM = os.environ.get("SUMPSIDE_CHROMIUM", "/usr/bin/chromium")
+# Chromium's own background traffic would be refused by this closed network; keep it quiet.
+CHROMIUM_ARGS = ["--no-sandbox", "--disable-background-networking", "--disable-component-update",
+                 "--disable-sync", "--no-first-run", "--disable-gpu", "--disable-quic"]
+BOOT_TIMEOUT_MS = 120_000
+PHONE = {"width": 360, "height": 740}
+
+
+def pytest_collection_modifyitems(items):
+    for item in items:
+        if "tests/browser" in str(item.fspath):
+            item.add_marker(pytest.mark.browser)
+
+
+@pytest.fixture(scope="session")
+def dist() -> Path:
+    if not (DIST / "index.html").exists():
+        pytest.fail("dist/ is not built: run `make test` (it builds first) or `python build.py`")
+    return DIST
+
+
+@pytest.fixture(scope="session")
+def serve_dir():
+    """Start a static server for a folder; every server is shut down at the end."""
+    from sitebuild import serve
+    servers = []
+
+    def start(root: Path) -> str:
+        server, base = serve.start_in_thread(root)
+        servers.append(server)
+        return base
+
+    yield start
+    for server in servers:
+        server.shutdown()
+
+
+@pytest.fixture(scope="session")
+def base_url(dist, serve_dir) -> str:
+    return serve_dir(dist)
+
+
+@pytest.fixture(scope="session")
+def browser():
+    sync_api = pytest.importorskip("playwright.sync_api")
+    if not Path(CHROMIUM).exists():
+        pytest.fail(f"{CHROMIUM} is missing: `make test` installs Debian's chromium as root")
+    with sync_api.sync_playwright() as playwright:
+        browser = playwright.chromium.launch(executable_path=CHROMIUM, headless=True, args=CHROMIUM_ARGS)
+        yield browser
+        browser.close()
+
+
+class Watch:
+    """Everything a page asked for and every console error, for assertions at the end."""
+
+    def __init__(self):
+        self.requests: list[str] = []
+        self.errors: list[str] = []
+
+    def attach(self, context):
+        context.on("request", lambda r: self.requests.append(r.url))
+        context.on("page", self.attach_page)
+        for page in context.pages:
+            self.attach_page(page)
+
+    def attach_page(self, page):
+        page.on("console", lambda m: m.type == "error" and self.errors.append(m.text))
+        page.on("pageerror", lambda e: self.errors.append(str(e)))
+
+
+@pytest.fixture
+def watch():
+    return Watch()
+
+
+@pytest.fixture
+def context(browser, watch):
+    context = browser.new_context(viewport=PHONE, service_workers="allow")
+    watch.attach(context)
+    yield context
+    context.close()
+
+
+@pytest.fixture
+def page(context):
+    return context.new_page()
+
+
+def open_app(page, base: str, route: str = "") -> None:
+    page.goto(base + route)
+    page.wait_for_selector("html[data-ready]", timeout=BOOT_TIMEOUT_MS)
+
+
+def wait_answer(page, tool: str, key: str) -> str:
+    """The shown text of one output once the tool has answered."""
+    selector = f'form[data-tool="{tool}"] [data-out="{key}"]'
+    page.wait_for_function(
+        "s => { const el = document.querySelector(s); return el && el.textContent.trim() !== '–'; }",
+        arg=selector, timeout=BOOT_TIMEOUT_MS)
+    return page.inner_text(selector)
+
+
+def copy_dist(dist: Path, where: Path) -> Path:
+    target = where / "dist"
+    shutil.copytree(dist, target)
+    return target
