@@ -115,6 +115,18 @@ def walther_viscosity(temp_c: float, a: float, b: float) -> float:
     return kv_from_z(10.0 ** (10.0 ** (a - b * math.log10(temp_c + KELVIN))))
 
 
+def viscosity_on_line(temp_c: float, a: float, b: float) -> float | None:
+    """`walther_viscosity`, or None where the line runs past what a float holds.
+
+    >>> print(viscosity_on_line(-60.0, *walther_fit(240.0, 1000.0, 250.0, 1.0)))
+    None
+    """
+    try:
+        return walther_viscosity(temp_c, a, b)
+    except OverflowError:
+        return None
+
+
 def walther_temperature(kv_cst: float, a: float, b: float) -> float:
     """Temperature [degC] at which the D341 line (A, B) has viscosity `kv_cst` [cSt].
 
@@ -285,10 +297,34 @@ def _kv_field(key: str, label: str, default: float, help_text: str) -> Field:
     return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text)
 
 
-def _limit_field(key: str, label: str) -> Field:
+def pump_limit_field(key: str, label: str) -> Field:
+    """An optional pump limit [cSt]: blank takes the pump type's preset."""
     return Field(key, label, _KV, None, min=1.0, max=1.0e5, optional=True,
                  help="Leave blank to use the pump type's typical figure; enter the pump "
                       "maker's figure when you have it.")
+
+
+# The pump type and its four limits, as every tool that checks an oil against a pump asks them.
+PUMP_FIELDS = (
+    Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES),
+    pump_limit_field("visc_start", "Max viscosity at start-up"),
+    pump_limit_field("visc_opt_high", "Optimum band, top"),
+    pump_limit_field("visc_opt_low", "Optimum band, bottom"),
+    pump_limit_field("visc_min", "Minimum viscosity"),
+)
+
+
+def window_text(window: tuple[float, float, float, float]) -> str:
+    """The window as shown: start-up maximum / optimum band / minimum, in cSt."""
+    start_max, opt_high, opt_low, minimum = window
+    return f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt"
+
+
+def note_preset_limits(result: Result, *limits: float | None) -> None:
+    """Say that blank pump limits are typical figures, when any was left blank."""
+    if any(v is None for v in limits):
+        result.note("Blank pump limits use typical figures for the pump type; the pump maker's "
+                    "data sheet always takes precedence.")
 
 
 @tool(
@@ -311,11 +347,7 @@ def _limit_field(key: str, label: str) -> Field:
               help="Used with the grade; from the oil's data sheet."),
         Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0,
               help="Measured in the tank or at the pump inlet."),
-        Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES),
-        _limit_field("visc_start", "Max viscosity at start-up"),
-        _limit_field("visc_opt_high", "Optimum band, top"),
-        _limit_field("visc_opt_low", "Optimum band, bottom"),
-        _limit_field("visc_min", "Minimum viscosity"),
+        *PUMP_FIELDS,
     ),
     outputs=(
         Output("kv", "Viscosity at oil temperature", _KV),
@@ -344,7 +376,10 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
     check_two_points(temp1, kv40, temp2, kv100)
     window = pump_window(pump, visc_start, visc_opt_high, visc_opt_low, visc_min)
     a, b = walther_fit(temp1, kv40, temp2, kv100)
-    kv = walther_viscosity(temp, a, b)
+    kv = viscosity_on_line(temp, a, b)
+    if kv is None:
+        raise InputError("temp", "at this temperature the oil's line runs off any scale: take "
+                                 "readings nearer the oil temperature")
     start_max, opt_high, opt_low, minimum = window
     crossings = {
         "t_start": walther_temperature(start_max, a, b),
@@ -353,17 +388,18 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
         "t_min": walther_temperature(minimum, a, b),
     }
     result = Result(values={"kv": kv, **crossings,
-                            "window": f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt",
-                            "kv40_used": walther_viscosity(40.0, a, b),
-                            "kv100_used": walther_viscosity(100.0, a, b)})
+                            "window": window_text(window),
+                            "kv40_used": viscosity_on_line(40.0, a, b),
+                            "kv100_used": viscosity_on_line(100.0, a, b)})
     window_verdict(result, kv, temp, window, crossings)
     if not (min(temp1, temp2) - 30.0 <= temp <= max(temp1, temp2) + 30.0):
         result.note("{0} is far outside the two readings ({1} and {2}): the D341 line is an "
                     "extrapolation there; confirm with a reading nearer that temperature.",
                     Q(temp, _T), Q(temp1, _T), Q(temp2, _T))
-    if any(v is None for v in (visc_start, visc_opt_high, visc_opt_low, visc_min)):
-        result.note("Blank pump limits use typical figures for the pump type; the pump maker's "
-                    "data sheet always takes precedence.")
+    note_preset_limits(result, visc_start, visc_opt_high, visc_opt_low, visc_min)
+    if kv > KV_MAX_CST:
+        result.note("Above {0} the viscosity is beyond the ASTM D341 chart: the figure shows "
+                    "only that the oil is far too thick to pump.", Q(KV_MAX_CST, _KV))
     if oil_from == "grade":
         result.note(f"The oil is taken at the mid-point of {grade}, {{0}} at {{1}}; a real "
                     f"batch may be up to 10 % either side. Its KV100 of {{2}} follows from VI "
