@@ -115,7 +115,7 @@ def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
                     "that has thickened or thinned in service, or an oil not sold by ISO grade.")
     if temp != 40.0:
         result.note(f"The reading at {{0}} was traced back to {{1}} assuming VI {vi:g}; a wrong "
-                    "VI shifts the answer more the farther the reading is from 40 °C. A lab KV40 "
+                    "VI shifts the answer more the farther the reading is from {1}. A lab KV40 "
                     "settles it.", Q(temp, _T), Q(40.0, _T))
     result.note("Take samples at normal running temperature from a sample valve, with gloves and "
                 "eye protection: hot oil burns and oil under pressure can pierce skin. Keep used "
@@ -140,10 +140,11 @@ def _wrong_oil_verdict(result: Result, kv40: float, grade: str, off: float) -> N
     else:
         cause = ("a lighter oil may have been topped up, or the oil has thinned (solvent or "
                  "fuel dilution, shear of the VI improver)")
+    side = "above" if off > 0 else "below"
     result.add("act", COMMON_PRACTICE,
-               f"At {{0}} the oil is {{1}} off the mid-point of {grade}: {cause}. Check the "
+               f"At {{0}} the oil is {{1}} {side} the mid-point of {grade}: {cause}. Check the "
                "top-up records, take a fresh sample from the same point, and send it to the lab "
-               "before draining or changing anything.", Q(kv40, _KV), Q(off, _PCT))
+               "before draining or changing anything.", Q(kv40, _KV), Q(abs(off), _PCT))
 
 
 # --- grade selector ----------------------------------------------------------------------
@@ -205,6 +206,9 @@ def minimum_vi(grade: str, cold_c: float, hot_c: float, window, fits_at: float,
     """The least VI (not below `floor`) at which `grade` fits, given that it fits at `fits_at`.
 
     Bisection between `floor` and `fits_at`, to 0.01 VI.
+
+    >>> round(minimum_vi("VG 46", 0.0, 60.0, (700.0, 40.0, 16.0, 10.0), 95.0), 1)
+    75.6
     """
     def fits(vi: float) -> bool:
         return _status(grade, vi, cold_c, hot_c, window)[0] == "fit"
@@ -221,6 +225,7 @@ _WHY = {
     "thick_cold": "too thick to start at {0}: {1} at VI {vi}, above the start-up maximum "
                   "of {2}",
     "thin": "too thin at {3}: {4} at VI {vi}, below the optimum band",
+    "too_thin": "too thin at {3}: {4} at VI {vi}, below the pump's minimum of {5}",
     "thick_hot": "heavier than needed: at {3} still {4} at VI {vi}, above the optimum band",
     "undefined": "has no oil at these VIs (its KV100 would be below 2 cSt, outside ASTM D2270)",
 }
@@ -289,7 +294,7 @@ def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, gr
         result.values.update(best_grade=best, best_vi=least[best], vi_pick=vi_pick,
                              kv_cold=kv_cold, kv_hot=kv_hot)
         result.add("ok", COMMON_PRACTICE,
-                   f"{best} with VI {vi_pick:g} or more fits: {{0}} at the coldest start of {{1}} "
+                   f"{best} at VI {vi_pick:g} fits: {{0}} at the coldest start of {{1}} "
                    "(start-up limit {2}) and {3} at {4}, inside the optimum band.",
                    Q(kv_cold, _KV), cold_q, Q(start_max, _KV), Q(kv_hot, _KV), hot_q)
     else:
@@ -303,9 +308,10 @@ def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, gr
         # The highest VI is the kindest to a cold start and a hot film; unless the grade is then
         # too thick when hot, in which case the lowest VI is the kindest.
         pick = rows[-1] if rows[-1][1] != "thick_hot" else rows[0]
-        why = _WHY[pick[1]].replace("{vi}", f"{pick[0]:g}")
+        reason = "too_thin" if pick[1] == "thin" and pick[3] < minimum else pick[1]
+        why = _WHY[reason].replace("{vi}", f"{pick[0]:g}")
         result.note(f"{g} {why}.", cold_q, Q(pick[2], _KV), Q(start_max, _KV), hot_q,
-                    Q(pick[3], _KV))
+                    Q(pick[3], _KV), Q(minimum, _KV))
     result.note("Below the oil's pour point the D341 line no longer holds: check the data "
                 "sheet's pour point against the coldest start. High-VI oils thickened with "
                 "polymers lose some VI in service; leave a margin.")

@@ -239,7 +239,12 @@ def kv100_from_vi(kv40_cst: float, vi: float) -> float:
 
 
 def check_kv40_kv100(kv40_cst: float, kv100_cst: float) -> None:
-    """InputError unless the pair is in the standard's range: Y >= 2 cSt and U > Y."""
+    """InputError unless the pair is in the standard's range: Y >= 2 cSt and U > Y.
+
+    >>> check_kv40_kv100(46.0, 1.9)
+    Traceback (most recent call last):
+    calc.errors.InputError: kv100: ASTM D2270 defines VI only for KV100 of 2 cSt and above
+    """
     if kv100_cst < KV100_MIN_CST:
         raise InputError("kv100", "ASTM D2270 defines VI only for KV100 of 2 cSt and above")
     if kv100_cst >= kv40_cst:

@@ -315,7 +315,11 @@ PUMP_FIELDS = (
 
 
 def window_text(window: tuple[float, float, float, float]) -> str:
-    """The window as shown: start-up maximum / optimum band / minimum, in cSt."""
+    """The window as shown: start-up maximum / optimum band / minimum, in cSt.
+
+    >>> window_text(PUMP_WINDOWS["vane"])
+    '700 / 40–16 / 10 cSt'
+    """
     start_max, opt_high, opt_low, minimum = window
     return f"{start_max:g} / {opt_high:g}–{opt_low:g} / {minimum:g} cSt"
 
