@@ -30,7 +30,7 @@ from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
 
-_ML = "volume_ml"
+_ML = "foam_ml"  # foam is reported in mL in both unit systems (ASTM D892)
 _MIN = "minutes"
 
 
@@ -174,8 +174,8 @@ def _pattern_verdicts(result: Result, patterns, air_release_min, limits: FoamLim
     }
     for key in patterns:
         if key in advice:
-            result.add("watch" if key == "mechanical" else "act",
-                       COMMON_PRACTICE, advice[key])
+            level = "watch" if key in ("mechanical", "antifoam-lost") else "act"
+            result.add(level, COMMON_PRACTICE, advice[key])
 
 
 def _foam_field(key: str, label: str) -> Field:

@@ -42,14 +42,14 @@ def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) 
     if "contamination" in patterns:
         board.add("contaminated-oil", STRONG,
                   "sequence I: {0} of foam still standing after settling, against {1} allowed",
-                  Q(stability, "volume_ml"), Q(limits.stability, "volume_ml"))
+                  Q(stability, "foam_ml"), Q(limits.stability, "foam_ml"))
     if "antifoam-lost" in patterns:
         board.add("antifoam-lost", STRONG,
                   "sequence I: foam tendency {0} against {1} allowed, and the foam breaks",
-                  Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+                  Q(tendency, "foam_ml"), Q(limits.tendency_24, "foam_ml"))
     if tendency is not None and tendency > limits.tendency_24:
         board.add("wrong-topup", WEAK, "sequence I: foam tendency {0} against {1} allowed",
-                  Q(tendency, "volume_ml"), Q(limits.tendency_24, "volume_ml"))
+                  Q(tendency, "foam_ml"), Q(limits.tendency_24, "foam_ml"))
     elif sequences and "contamination" not in patterns:
         board.add_each(("contaminated-oil", "antifoam-lost"), AGAINST,
                        f"sequence I foam within the limits for {grade}")
@@ -107,9 +107,9 @@ def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flo
         Field("grade", "Oil grade", "choice", "VG 46", choices=foam.GRADE_CHOICES),
         Field("air_release", "Air-release time at 50 °C (lab)", "minutes", None, min=0.0,
               max=120.0, optional=True),
-        Field("seq1_tendency", "Foam sequence I: tendency (lab)", "volume_ml", None, min=0.0,
+        Field("seq1_tendency", "Foam sequence I: tendency (lab)", "foam_ml", None, min=0.0,
               max=2000.0, optional=True),
-        Field("seq1_stability", "Foam sequence I: stability (lab)", "volume_ml", None, min=0.0,
+        Field("seq1_stability", "Foam sequence I: stability (lab)", "foam_ml", None, min=0.0,
               max=2000.0, optional=True),
         Field("oil_volume", "Oil in the tank at working level", "volume", None, min=1.0,
               max=1.0e6, optional=True, help="From the tank-volume tool."),

@@ -83,6 +83,7 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("pressure_kpa", "kPa", "psi", _PSI_IN_BAR * 100.0),
     _quantity("volume", "L", "US gal", _GAL_IN_L, digits=4),
     _quantity("volume_ml", "mL", "US fl oz", _GAL_IN_L * 1000.0 / 128.0),
+    _quantity("foam_ml", "mL"),  # ASTM D892 reports foam in mL in US practice too
     _quantity("flow", "L/min", "gpm", _GAL_IN_L),
     _quantity("length", "mm", "in", _INCH_IN_MM),
     _quantity("length_m", "m", "ft", _FOOT_IN_M),

@@ -45,8 +45,8 @@ def test_standing_foam_points_to_contamination():
     # Stability 0 mL allowed after settling (from memory); 50 mL stands.
     result = checklist_aeration(seq1_tendency=200.0, seq1_stability=50.0)
     assert _order(result)[0] == "contaminated-oil"
-    assert "sequence I: 50 volume_ml of foam still standing after settling, against 0 " \
-           "volume_ml allowed" in _reasons(result, "contaminated-oil")
+    assert "sequence I: 50 foam_ml of foam still standing after settling, against 0 " \
+           "foam_ml allowed" in _reasons(result, "contaminated-oil")
 
 
 def test_splashing_return_outranks_everything_else_ticked_once():

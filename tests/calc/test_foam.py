@@ -85,8 +85,17 @@ def test_zero_air_release_limit_is_refused():
     assert not answer["ok"] and answer["errors"][0]["field"] == "limit_air_release"
 
 
-def test_us_units_show_foam_in_fluid_ounces():
-    # 1 US fl oz = 29.5735 mL (NIST SP 811: 1 gal = 128 fl oz = 3.785411784 L).
-    answer = bridge.run("foam-air-tests", {}, "us")
-    assert answer["units"]["tendency_limit_24"] == "US fl oz"
-    assert answer["values"]["tendency_limit_24"] == pytest.approx(150.0 / 29.5735, rel=1e-5)
+def test_us_units_keep_foam_in_ml():
+    # ASTM D892 reports foam volumes in mL in US practice too; air release stays in minutes.
+    answer = bridge.run("foam-air-tests", {"seq1_tendency": 200, "seq1_stability": 20}, "us")
+    assert answer["units"]["tendency_limit_24"] == "mL"
+    assert answer["values"]["tendency_limit_24"] == 150.0
+    assert "20.0 mL of foam still standing" in answer["verdicts"][0]["message"]
+
+
+
+def test_tall_foam_that_breaks_is_a_watch_not_an_act():
+    # 300 mL against 150 mL in sequence I (from memory), none left after settling.
+    result = foam_air_tests("VG 46", seq1_tendency=300.0, seq1_stability=0.0)
+    assert result.level == "watch"
+    assert result.values["points_to"].startswith("antifoam used up")
