@@ -11,7 +11,7 @@ from __future__ import annotations
 from . import suction
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
-from .registry import Field, Output, tool
+from .registry import Field, tool
 from .result import COMMON_PRACTICE, Q
 
 CAUSES = (

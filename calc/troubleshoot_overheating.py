@@ -10,7 +10,7 @@ from __future__ import annotations
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .errors import InputError
-from .registry import Field, Output, tool
+from .registry import Field, tool
 from .result import COMMON_PRACTICE, Q
 
 CAUSES = (
