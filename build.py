@@ -28,7 +28,7 @@ from pathlib import Path
 
 import jinja2
 
-from sitebuild import content, icons, serve
+from sitebuild import content, icons, serve, snapshot
 
 ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
@@ -183,6 +183,8 @@ def build(dist: Path = DIST) -> str:
     wheel = build_wheel(pyodide_dir)
     write_lock_file(wheel, pyodide_dir)
     copy_static(dist)
+    # The worker boots from this memory snapshot (sitebuild/snapshot.py); it is precached too.
+    snapshot.write_snapshot(pyodide_dir)
     icons.write_icons(dist / "icons")
     write_manifest(dist)
     # The page shows its build id: hash the page with a token in the id's place, then fill it in.
@@ -195,6 +197,8 @@ def build(dist: Path = DIST) -> str:
         {"build": build_id, "pyodide": pyodide_version, "version": project_meta()["version"],
          "wheel": wheel.name}, indent=2), encoding="utf-8")
     write_service_worker(dist, precache_list(dist), build_id)
+    # Wire encodings only, after the precache list: the cache keeps the decoded bytes.
+    snapshot.write_gzip_twins(dist)
     return build_id
 
 
@@ -203,12 +207,13 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("command", nargs="?", default="build", choices=("build", "serve"))
     parser.add_argument("--port", type=int, default=int(os.environ.get("PORT", "8000")))
     parser.add_argument("--no-build", action="store_true", help="serve dist/ as it is")
+    parser.add_argument("--dist", type=Path, default=DIST, help="where to build (default dist/)")
     args = parser.parse_args(argv)
     if not (args.command == "serve" and args.no_build):
-        build_id = build()
-        print(f"built dist/ (build {build_id})")
+        build_id = build(args.dist.resolve())
+        print(f"built {args.dist} (build {build_id})")
     if args.command == "serve":
-        serve.serve_forever(DIST, port=args.port)
+        serve.serve_forever(args.dist.resolve(), port=args.port)
     return 0
 
 

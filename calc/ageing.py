@@ -207,7 +207,7 @@ def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, ar
     title="Oxidation life and temperature",
     summary="How oil life shortens with heat, and how much of it a run of hours at "
             "several temperatures has used.",
-    topic="Ageing",
+    topic="Oil life and condition",
     inputs=(
         Field("ref_life", "Reference life", _H, DEMO_LIFE_H, min=1.0, max=1.0e7,
               help="Life of your oil at the reference temperature: from the oil maker, the "
@@ -309,7 +309,7 @@ def _life_used_verdict(result: Result, used: float, eq_h: float, ref_life: float
     title="Remaining life from oxidation reserve",
     summary="When the oil's oxidation reserve (RPVOT or % of new) reaches its condemning "
             "limit, by a straight line through two readings.",
-    topic="Ageing",
+    topic="Oil life and condition",
     inputs=(
         Field("new_value", "Reading of the new oil", "ratio", 100.0, min=0.001, max=1.0e5,
               help="100 when readings are % of new; the new oil's RPVOT minutes when readings "

@@ -83,7 +83,7 @@ _VISC_ACTIONS = {
     title="Oil condition check",
     summary="A reading or lab report against watch and act limits: viscosity change, acid "
             "number, water, cleanliness and oxidation reserve, with one overall verdict.",
-    topic="Ageing",
+    topic="Oil life and condition",
     inputs=(
         Field("kv40_new", "KV40 of the new oil", _KV, 46.0, min=1.0, max=10000.0,
               help="From the new-oil data sheet or the first sample."),

@@ -248,7 +248,7 @@ _H = "heat_transfer"
     title="Tank heat balance",
     summary="Heat the circuit puts into the oil, what the tank sheds by itself, the oil "
             "temperature it settles at, the warm-up time and the cooler needed for a target.",
-    topic="Tank",
+    topic="Tank and circuit",
     inputs=(
         Field("load_from", "Heat load", "choice", "power", choices=LOAD_CHOICES),
         Field("power", "Power into the pump", _KW, 7.5, min=0.0, max=5000.0,

@@ -162,7 +162,7 @@ _PCT = "percent"
     title="Tank volume at a level",
     summary="Oil in the tank at a measured level (or the level for a volume), the full volume, "
             "how full it is and the air space above the oil.",
-    topic="Tank",
+    topic="Tank and circuit",
     inputs=shape_fields() + (
         Field("volume", "Oil volume (to find its level)", _V, None, min=0.0, max=1.0e7,
               optional=True, help="Leave blank to compute the volume at the level above; enter a "
@@ -250,7 +250,7 @@ def tank_volume_needed_l(flow_lpm: float, minutes: float, fill_fraction: float) 
     title="Tank size and dwell time",
     summary="The tank against the pump's flow (minutes of flow) and the time the oil stays in "
             "it against its air-release time, at the working level and at the low level.",
-    topic="Tank",
+    topic="Tank and circuit",
     inputs=(
         Field("tank_volume", "Full tank volume", _V, 400.0, min=1.0, max=1.0e6,
               help="The tank-volume tool gives it from the dimensions."),

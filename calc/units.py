@@ -54,12 +54,12 @@ class Quantity:
 
 
 def _quantity(name: str, metric: str, us: str | None = None, factor: float | None = None,
-              digits: int = 3) -> Quantity:
+              digits: int = 3, decimals: int | None = None) -> Quantity:
     """A quantity whose US unit is `factor` metric units (1 US unit = factor metric)."""
     if factor is None:
-        return Quantity(name, metric, us or metric, digits=digits)
+        return Quantity(name, metric, us or metric, digits=digits, decimals=decimals)
     to_us, to_metric = _scale(factor)
-    return Quantity(name, metric, us or metric, to_us, to_metric, digits)
+    return Quantity(name, metric, us or metric, to_us, to_metric, digits, decimals)
 
 
 # Exact conversion factors: NIST SP 811 (2008), appendix B.
@@ -98,7 +98,7 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("percent", "%"),
     _quantity("fraction", ""),
     _quantity("ratio", ""),
-    _quantity("count", ""),
+    _quantity("count", "", decimals=0),
     _quantity("per_ml", "/mL", digits=4),  # particles per mL (ISO 4406); no US unit
     _quantity("acid_number", "mg KOH/g"),  # ASTM D664 / D974; no US unit
     _quantity("molar_energy", "kJ/mol"),  # activation energy; shown in SI everywhere

@@ -9,7 +9,8 @@ from pathlib import Path
 import pytest
 
 ROOT = Path(__file__).resolve().parents[2]
-DIST = ROOT / "dist"
+# SUMPSIDE_DIST tests another build folder (python build.py --dist DIR).
+DIST = Path(os.environ.get("SUMPSIDE_DIST", ROOT / "dist"))
 CHROMIUM = os.environ.get("SUMPSIDE_CHROMIUM", "/usr/bin/chromium")
 # Chromium's own background traffic would be refused by this closed network; keep it quiet.
 CHROMIUM_ARGS = ["--no-sandbox", "--disable-background-networking", "--disable-component-update",

@@ -19,7 +19,12 @@ def test_inverse_round_trip(kv100, vi):
     # Definition of the inverse: the KV100 found for (KV40, VI) gives back that VI.
     kv40 = kv40_from_vi(kv100, vi)
     assert viscosity_index(kv40, kv100) == pytest.approx(vi, abs=1e-7)
-    assert kv100_from_vi(kv40, vi) == pytest.approx(kv100, rel=1e-9)
+    found = kv100_from_vi(kv40, vi)
+    assert viscosity_index(kv40, found) == pytest.approx(vi, abs=1e-6)
+    # D2270's table (to 70 cSt) and its equations (above) do not meet exactly at 70 cSt, so
+    # there two KV100s can share one VI; away from the seam the inverse is unique.
+    if abs(kv100 - 70.0) > 0.1:
+        assert found == pytest.approx(kv100, rel=1e-9)
 
 
 @settings(max_examples=300, deadline=None)

@@ -17,7 +17,8 @@ pytestmark = pytest.mark.pyodide
 
 
 def _shipped_wheel() -> Path:
-    found = sorted((ROOT / "dist" / "pyodide").glob("sumpside-*.whl"))
+    dist = Path(os.environ.get("SUMPSIDE_DIST", ROOT / "dist"))
+    found = sorted((dist / "pyodide").glob("sumpside-*.whl"))
     if not found:
         pytest.fail("dist/ holds no calc wheel: run `make test` (it builds first)")
     return found[-1]
