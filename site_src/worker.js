@@ -1,9 +1,20 @@
-// The calculator's thread: boots Pyodide from this build's own copy, loads the calc
-// wheel, and answers {id, request} messages with the bridge's JSON. It never touches
-// the page; the page never waits on it to be usable.
+// The calculator's thread: boots Pyodide from this build's own copy and answers
+// {id, op, request} messages with the bridge's JSON. It never touches the page; the page
+// never waits on it to be usable.
+//
+// Fast path: restore the memory snapshot build.py made (an interpreter that already
+// imported calc and ran every tool), after checking it belongs to this build: snapshot.json
+// names the calc wheel's sha256, which must be the lock file's; the bytes must match the
+// size and sha256 it gives; the restored interpreter must carry the same wheel hash and
+// give the probe the same answer a fresh one gave at build time. Anything else (missing,
+// corrupt, another build, too big for the 30 MiB heap Pyodide 314.0.x restores into)
+// falls back to the normal boot, and the status line says why.
+// _loadSnapshot is an experimental, underscore-named option of the pinned Pyodide.
 import { loadPyodide } from "./pyodide/pyodide.mjs";
 
 const base = new URL("./", import.meta.url);
+const pyodideURL = new URL("pyodide/", base);
+const DEFAULT_HEAP_BYTES = 30 * 1024 * 1024;
 let runJson = null;
 let reexpressJson = null;
 
@@ -11,23 +22,109 @@ function status(state, text, extra = {}) {
   postMessage({ type: "status", state, text, ...extra });
 }
 
-async function boot() {
-  const started = performance.now();
-  status("starting", "Starting calculator…");
-  const pyodide = await loadPyodide({
-    indexURL: new URL("pyodide/", base).href,
-    lockFileURL: new URL("pyodide/pyodide-lock.json", base).href,
+function options(lock) {
+  return {
+    indexURL: pyodideURL.href,
+    lockFileContents: lock,
+    packageBaseUrl: pyodideURL.href,
     stdout: () => {},
     stderr: (line) => console.warn(line),
-  });
-  await pyodide.loadPackage("sumpside", { messageCallback: () => {}, errorCallback: (m) => console.warn(m) });
+  };
+}
+
+async function fetchJSON(name) {
+  const response = await fetch(new URL(name, pyodideURL));
+  if (!response.ok) throw new Error(`${name}: HTTP ${response.status}`);
+  return response.json();
+}
+
+function hex(buffer) {
+  return Array.from(new Uint8Array(buffer), (b) => b.toString(16).padStart(2, "0")).join("");
+}
+
+// The snapshot's bytes once they are known to be this build's, else a rejection saying why.
+async function snapshotBytes(meta, wheelSha) {
+  if (meta.format !== 1) throw new Error("snapshot format " + meta.format + " is not known here");
+  if (meta.wheel_sha256 !== wheelSha) throw new Error("snapshot is from another build");
+  const response = await fetch(new URL(meta.file, pyodideURL));
+  if (!response.ok) throw new Error(`snapshot: HTTP ${response.status}`);
+  const bytes = new Uint8Array(await response.arrayBuffer());
+  if (bytes.length !== meta.bytes) throw new Error(`snapshot is ${bytes.length} bytes, not ${meta.bytes}`);
+  const heap = bytes.length - new DataView(bytes.buffer).getUint32(4, true);
+  if (heap > DEFAULT_HEAP_BYTES) throw new Error(`snapshot heap of ${heap} bytes outgrows the restore's ${DEFAULT_HEAP_BYTES}`);
+  if (hex(await crypto.subtle.digest("SHA-256", bytes)) !== meta.sha256) throw new Error("snapshot is corrupt (sha256 differs)");
+  return bytes;
+}
+
+function bind(pyodide) {
   const bridge = pyodide.pyimport("calc.bridge");
   runJson = (text) => bridge.run_json(text);
   reexpressJson = (text) => bridge.reexpress_json(text);
+}
+
+async function bootSnapshot(lock, meta, wheelSha) {
+  // The bytes arrive while Pyodide compiles its wasm; a rejection there fails loadPyodide.
+  // loadPyodide awaits them only later: mark the promise handled so an early rejection is
+  // not reported as unhandled (it still fails loadPyodide, which falls back).
+  const bytes = snapshotBytes(meta, wheelSha);
+  bytes.catch(() => {});
+  const pyodide = await loadPyodide({ ...options(lock), _loadSnapshot: bytes });
+  const stamped = pyodide.runPython("getattr(__import__('calc'), '_snapshot_wheel_sha256', '')");
+  if (stamped !== wheelSha) throw new Error("restored interpreter is from another build");
+  // A restored interpreter starts with the snapshot's random state: give it a fresh one.
+  pyodide.runPython("import random; random.seed()");
+  bind(pyodide);
+  const answer = runJson(JSON.stringify(meta.probe));
+  if (answer !== meta.probe_answer) throw new Error("restored calculator answered the probe differently");
+  // The snapshot holds memory, not files: lay the wheel's files down again once idle, so
+  // tracebacks and anything reading the package's files find them. Every module is
+  // imported already, so nothing waits on this.
+  setTimeout(() => layDownWheel(pyodide, lock).catch((err) => console.warn("wheel files:", err)), 1500);
+  return pyodide;
+}
+
+async function layDownWheel(pyodide, lock) {
+  const entry = lock.packages.sumpside;
+  const response = await fetch(new URL(entry.file_name, pyodideURL));
+  if (!response.ok) throw new Error(`${entry.file_name}: HTTP ${response.status}`);
+  pyodide.FS.writeFile("/tmp/sumpside.whl", new Uint8Array(await response.arrayBuffer()));
+  pyodide.runPython("import site, zipfile\nwith zipfile.ZipFile('/tmp/sumpside.whl') as w:\n"
+    + "    w.extractall(site.getsitepackages()[0])");
+  pyodide.FS.unlink("/tmp/sumpside.whl");
+}
+
+async function bootNormal(lock) {
+  const pyodide = await loadPyodide(options(lock));
+  await pyodide.loadPackage("sumpside", { messageCallback: () => {}, errorCallback: (m) => console.warn(m) });
+  bind(pyodide);
   // One real answer before saying "ready": a broken wheel shows here, not at the first tap.
   const probe = JSON.parse(runJson(JSON.stringify({ tool: "viscosity-at-temperature", inputs: {} })));
   if (!probe.ok) throw new Error("calculator self-check failed");
-  postMessage({ type: "ready", ms: Math.round(performance.now() - started), mode: "normal" });
+  return pyodide;
+}
+
+async function boot() {
+  const started = performance.now();
+  status("starting", "Starting calculator…");
+  const lock = await fetchJSON("pyodide-lock.json");
+  const wheelSha = lock.packages.sumpside.sha256;
+  let note = "";
+  try {
+    const meta = await fetchJSON("snapshot.json").catch((err) => {
+      throw new Error("no snapshot in this build (" + err.message + ")");
+    });
+    await bootSnapshot(lock, meta, wheelSha);
+    postMessage({ type: "ready", ms: Math.round(performance.now() - started), mode: "snapshot" });
+    return;
+  } catch (err) {
+    note = String(err && err.message ? err.message : err);
+    console.warn("snapshot boot failed, booting the normal way:", note);
+    runJson = reexpressJson = null;
+    status("starting", "Starting calculator the slow way (quick start unavailable: " + note + ")…",
+      { mode: "normal", note });
+  }
+  await bootNormal(lock);
+  postMessage({ type: "ready", ms: Math.round(performance.now() - started), mode: "normal", note });
 }
 
 const booted = boot().catch((err) => {

@@ -1,0 +1,108 @@
+"""The worker's memory snapshot: made at build time in Node.js, restored in the browser.
+
+A normal Pyodide boot spends seconds in the interpreter's own start-up; restoring a
+snapshot of an interpreter that already imported calc and ran every tool takes a fraction
+of that. ``write_snapshot`` runs sitebuild/make_snapshot.mjs with the build's own copy of
+the pinned Pyodide and writes, beside it in dist/pyodide/:
+
+- ``snapshot.bin``: the raw snapshot (kept raw so the cache holds it ready to restore;
+  ``write_gzip_twins`` adds ``snapshot.bin.gz`` for the wire);
+- ``snapshot.json``: what ties it to this build: the calc wheel's sha256 (the same hash
+  the lock file gives the wheel; the snapshot also carries it inside the interpreter as
+  ``calc._snapshot_wheel_sha256``), the Pyodide version, the byte count and sha256 of
+  ``snapshot.bin``, and one probe request with the answer the freshly booted interpreter
+  gave, which the worker asks again after a restore.
+
+Pyodide 314.0.x restores into its default 30 MiB heap without growing it, so a snapshot
+whose heap outgrew that cannot be restored ("offset is out of bounds"): such a snapshot is
+not shipped, the build says so, and the worker boots the normal way.
+"""
+
+from __future__ import annotations
+
+import gzip
+import hashlib
+import json
+import shutil
+import subprocess
+import sys
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+SCRIPT = HERE / "make_snapshot.mjs"
+# Pyodide 314.0.x's wasm memory at start-up (31457280 bytes); a restore never grows it.
+DEFAULT_HEAP_BYTES = 30 * 1024 * 1024
+SNAPSHOT = "snapshot.bin"
+META = "snapshot.json"
+PROBE = {"tool": "viscosity-at-temperature", "inputs": {}, "units": "metric"}
+# Files the browser fetches that compress well; their .gz twins are served by sitebuild.serve.
+GZIP_SUFFIXES = (".bin", ".wasm", ".mjs", ".js", ".css", ".html", ".json", ".webmanifest", ".svg")
+
+
+def heap_bytes(snapshot: bytes) -> int:
+    """Bytes of wasm heap in a Pyodide snapshot: the header's second word is the heap's offset."""
+    offset = int.from_bytes(snapshot[4:8], "little")
+    return len(snapshot) - offset
+
+
+def _pyodide_version(pyodide_dir: Path) -> str:
+    npm = HERE.parent / "node_modules" / "pyodide" / "package.json"
+    return json.loads(npm.read_text())["version"] if npm.exists() else "unknown"
+
+
+def write_snapshot(pyodide_dir: Path) -> dict | None:
+    """Make dist/pyodide/snapshot.bin and snapshot.json; returns the metadata, None if not shipped."""
+    node = shutil.which("node")
+    if not node:
+        sys.exit("build: `node` is missing: the memory snapshot is made with Node.js "
+                 "(install nodejs, then `npm ci`)")
+    lock = json.loads((pyodide_dir / "pyodide-lock.json").read_text())
+    wheel_sha = lock["packages"]["sumpside"]["sha256"]
+    # The version the worker's loader reports, from the copied module (the lock file has none).
+    version = _pyodide_version(pyodide_dir)
+    out = pyodide_dir / SNAPSHOT
+    run = subprocess.run([node, str(SCRIPT), str(pyodide_dir), str(out), wheel_sha, json.dumps(PROBE)],
+                         capture_output=True, text=True)
+    if run.returncode != 0:
+        tail = "\n".join((run.stderr or run.stdout).strip().splitlines()[-15:])
+        sys.exit(f"build: making the memory snapshot failed:\n{tail}")
+    made = json.loads(run.stdout.strip().splitlines()[-1])
+    data = out.read_bytes()
+    if heap_bytes(data) > DEFAULT_HEAP_BYTES:
+        out.unlink()
+        print(f"build: WARNING the snapshot's heap is {heap_bytes(data)} bytes, more than the "
+              f"{DEFAULT_HEAP_BYTES} a Pyodide {version} restore can hold: not shipped, the "
+              "worker will boot the normal way", file=sys.stderr)
+        return None
+    meta = {
+        "format": 1,
+        "file": SNAPSHOT,
+        "wheel_sha256": wheel_sha,
+        "pyodide": version,
+        "bytes": len(data),
+        "heap_bytes": heap_bytes(data),
+        "sha256": hashlib.sha256(data).hexdigest(),
+        "tools": made["tools"],
+        "probe": PROBE,
+        "probe_answer": made["probe_answer"],
+    }
+    (pyodide_dir / META).write_text(json.dumps(meta, indent=2, ensure_ascii=False), encoding="utf-8")
+    return meta
+
+
+def write_gzip_twins(dist: Path, min_bytes: int = 1024) -> list[str]:
+    """A ``.gz`` twin beside every compressible file worth it; returns the twins written.
+
+    Written after the service worker's precache list, so the twins are wire encodings only
+    (the cache stores the decoded bytes: the snapshot is inflated once, not at every boot).
+    """
+    written = []
+    for path in sorted(dist.rglob("*")):
+        if not path.is_file() or path.suffix not in GZIP_SUFFIXES or path.stat().st_size < min_bytes:
+            continue
+        raw = path.read_bytes()
+        packed = gzip.compress(raw, compresslevel=9, mtime=0)
+        if len(packed) < 0.9 * len(raw):
+            path.with_name(path.name + ".gz").write_bytes(packed)
+            written.append(path.relative_to(dist).as_posix())
+    return written

@@ -1,0 +1,119 @@
+"""The worker boots from the build's memory snapshot, and boots the normal way, saying so,
+when the snapshot is missing, corrupt, from another build or too big to restore."""
+
+from __future__ import annotations
+
+import gzip
+import hashlib
+import json
+
+import pytest
+
+from calc import bridge
+
+from .conftest import copy_dist, open_app, wait_answer
+
+TOOL = "viscosity-at-temperature"
+# Every text the status line showed, in order.
+SEEN_STATUS = """
+window.__statusSeen = [];
+document.addEventListener("DOMContentLoaded", () => {
+  const line = document.getElementById("boot-status");
+  const note = () => window.__statusSeen.push(line.textContent);
+  note();
+  new MutationObserver(note).observe(line, { childList: true, characterData: true, subtree: true });
+});
+"""
+
+
+def _status(page) -> tuple[str, str, str]:
+    line = page.locator("#boot-status")
+    return page.get_attribute("html", "data-ready"), line.inner_text(), line.get_attribute("title") or ""
+
+
+def _answers_like_the_cli(page) -> None:
+    expected = bridge.run(TOOL, {})
+    assert wait_answer(page, TOOL, "kv") == expected["text"]["kv"]
+
+
+def test_the_built_snapshot_belongs_to_this_build(dist):
+    meta = json.loads((dist / "pyodide" / "snapshot.json").read_text())
+    lock = json.loads((dist / "pyodide" / "pyodide-lock.json").read_text())
+    data = (dist / "pyodide" / meta["file"]).read_bytes()
+    assert meta["wheel_sha256"] == lock["packages"]["sumpside"]["sha256"]
+    assert (len(data), hashlib.sha256(data).hexdigest()) == (meta["bytes"], meta["sha256"])
+    # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
+    assert meta["heap_bytes"] <= 30 * 1024 * 1024
+    assert json.loads(meta["probe_answer"]) == bridge.run(meta["probe"]["tool"], meta["probe"]["inputs"])
+    sw = (dist / "sw.js").read_text()
+    assert '"pyodide/snapshot.bin"' in sw and '"pyodide/snapshot.json"' in sw
+    assert ".gz" not in sw  # twins are a wire encoding, never cached twice
+
+
+def test_boots_from_the_snapshot_by_default(page, base_url, watch):
+    open_app(page, base_url, f"#/tool/{TOOL}")
+    mode, text, title = _status(page)
+    assert mode == "snapshot", (text, title)
+    assert "(snapshot)" in title
+    _answers_like_the_cli(page)
+    assert not watch.errors
+
+
+def _break(folder, how: str) -> None:
+    pyo = folder / "pyodide"
+    meta_path = pyo / "snapshot.json"
+    meta = json.loads(meta_path.read_text())
+    snap = pyo / meta["file"]
+    if how == "missing":
+        for name in ("snapshot.json", "snapshot.json.gz", "snapshot.bin", "snapshot.bin.gz"):
+            (pyo / name).unlink(missing_ok=True)
+        return
+    if how == "corrupt":
+        data = bytearray(snap.read_bytes())
+        data[len(data) // 2] ^= 0xFF  # one flipped byte in the heap: Pyodide itself would not notice
+        snap.write_bytes(bytes(data))
+    elif how == "truncated":
+        snap.write_bytes(snap.read_bytes()[: meta["bytes"] // 2])
+    elif how == "other-build":
+        meta["wheel_sha256"] = "0" * 64
+    elif how == "other-answer":
+        # What a snapshot of other calc code would show: the same probe, another answer.
+        meta["probe_answer"] = meta["probe_answer"].replace('"ok": true', '"ok": true, "x": 1', 1)
+    elif how == "too-big":
+        # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
+        data = snap.read_bytes() + bytes(1024 * 1024)
+        snap.write_bytes(data)
+        meta["bytes"], meta["sha256"] = len(data), hashlib.sha256(data).hexdigest()
+    meta_path.write_text(json.dumps(meta))
+    # The server prefers the .gz twins: keep them in step with the files changed above.
+    for path in (snap, meta_path):
+        twin = path.with_name(path.name + ".gz")
+        if twin.exists():
+            twin.write_bytes(gzip.compress(path.read_bytes(), 1))
+
+
+@pytest.mark.parametrize("how, says", [
+    ("missing", "no snapshot in this build"),
+    ("corrupt", "corrupt"),
+    ("truncated", "bytes, not"),
+    ("other-build", "another build"),
+    ("other-answer", "answered the probe differently"),
+    ("too-big", "outgrows"),
+])
+def test_falls_back_to_a_normal_boot_and_says_why(page, dist, serve_dir, tmp_path, watch, how, says):
+    folder = copy_dist(dist, tmp_path)
+    _break(folder, how)
+    base = serve_dir(folder)
+    notes = []
+    page.on("console", lambda m: notes.append(m.text) if m.type == "warning" else None)
+    page.add_init_script(SEEN_STATUS)
+    open_app(page, base, f"#/tool/{TOOL}")
+    mode, text, title = _status(page)
+    assert mode == "normal", (text, title)
+    assert says in title, title
+    # While the normal boot ran, the status line said the quick start was unavailable and why.
+    seen = page.evaluate("window.__statusSeen")
+    assert any("quick start unavailable" in s and says in s for s in seen), seen
+    assert any(says in n for n in notes), notes
+    _answers_like_the_cli(page)
+    assert not watch.errors
