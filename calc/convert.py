@@ -20,6 +20,7 @@ from . import units
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import Q, Result
+from .solve import bisect
 
 # Exact by definition: 1 standard atmosphere = 101 325 Pa (NIST SP 811, B.8).
 ATM_IN_BAR = 1.01325
@@ -95,16 +96,8 @@ def kinematic_from_saybolt(sus: float, temp_f: float = 100.0) -> float:
     >>> round(kinematic_from_saybolt(saybolt_seconds(46.0, 210.0), 210.0), 9)
     46.0
     """
-    low, high = 0.5, SUS_KV_MAX_CST * 2.0
-    for _ in range(200):
-        mid = 0.5 * (low + high)
-        if saybolt_seconds(mid, temp_f) < sus:
-            low = mid
-        else:
-            high = mid
-        if high - low <= 1e-12 * high:
-            break
-    return 0.5 * (low + high)
+    return bisect(lambda kv: saybolt_seconds(kv, temp_f) - sus, 0.5, SUS_KV_MAX_CST * 2.0,
+                  rel_tol=1e-12, max_iter=200)
 
 
 def celsius_to_fahrenheit(temp_c: float) -> float:

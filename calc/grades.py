@@ -21,6 +21,7 @@ from .iso3448 import (GRADE_CHOICES, ISO_VG_GRADES, grade_containing, grade_limi
                       grade_midpoint, nearest_grade, neighbours)
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
+from .solve import bracket
 from .vi import find_root, kv40_from_vi, kv100_from_vi, KV100_MIN_CST
 from .viscosity import (PUMP_FIELDS, note_preset_limits, pump_window, walther_fit,
                         walther_viscosity, window_text)
@@ -214,11 +215,7 @@ def minimum_vi(grade: str, cold_c: float, hot_c: float, window, fits_at: float,
         return _status(grade, vi, cold_c, hot_c, window)[0] == "fit"
     if fits(floor):
         return floor
-    lo, hi = floor, fits_at
-    while hi - lo > 0.01:
-        mid = 0.5 * (lo + hi)
-        lo, hi = (lo, mid) if fits(mid) else (mid, hi)
-    return hi
+    return bracket(fits, floor, fits_at, x_tol=0.01, rel_tol=0.0)[1]  # the end that fits
 
 
 _WHY = {

@@ -28,6 +28,7 @@ from .convection import convection_coefficient, radiation_coefficient
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
+from .solve import bisect
 from .tank import check_level, depth_mm, segment_area_mm2, shape_fields, volume_at_level_l
 
 # Typical mineral hydraulic oil: density about 870 kg/m^3, specific heat about 1.9 kJ/(kg K)
@@ -141,14 +142,7 @@ def steady_temperature_c(load_kw: float, loss_kw: Callable[[float], float], air_
         return air_c
     if loss_kw(cap_c) < load_kw:
         return None
-    low, high = air_c, cap_c
-    while high - low > 1e-9:
-        mid = 0.5 * (low + high)
-        if loss_kw(mid) < load_kw:
-            low = mid
-        else:
-            high = mid
-    return 0.5 * (low + high)
+    return bisect(lambda t: loss_kw(t) - load_kw, air_c, cap_c, x_tol=1e-9, rel_tol=0.0)
 
 
 def time_to_temperature_min(load_kw: float, loss_kw: Callable[[float], float],

@@ -30,6 +30,7 @@ from .lines import (darcy_drop_bar, dynamic_pressure_bar, flow_regime, friction_
                     line_velocity, reynolds_number)
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
+from .solve import bisect
 from .viscosity import check_two_points, walther_fit, walther_viscosity
 
 G = 9.80665  # standard gravity [m/s^2], CGPM 1901
@@ -107,15 +108,7 @@ def starving_temperature(inlet_at: Callable[[float], float], p_min_bar: float,
     while upper > cold_c:
         lower = max(upper - SCAN_STEP_K, cold_c)
         if margin(lower) < 0.0:
-            for _ in range(60):
-                mid = 0.5 * (lower + upper)
-                if margin(mid) < 0.0:
-                    lower = mid
-                else:
-                    upper = mid
-                if upper - lower < 1e-6:
-                    break
-            return 0.5 * (lower + upper)
+            return bisect(margin, lower, upper, x_tol=1e-6, rel_tol=0.0, max_iter=60)
         upper = lower
     return None
 

@@ -19,6 +19,7 @@ import math
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q, Result
+from .solve import bisect
 
 MM3_PER_L = 1.0e6
 
@@ -84,14 +85,8 @@ def horizontal_cylinder_level_mm(diameter_mm: float, length_mm: float, volume_l:
     >>> round(horizontal_cylinder_level_mm(1000.0, 2000.0, 307.092), 2)
     250.0
     """
-    low, high = 0.0, diameter_mm
-    for _ in range(60):
-        mid = 0.5 * (low + high)
-        if horizontal_cylinder_volume_l(diameter_mm, length_mm, mid) < volume_l:
-            low = mid
-        else:
-            high = mid
-    return 0.5 * (low + high)
+    return bisect(lambda level: horizontal_cylinder_volume_l(diameter_mm, length_mm, level)
+                  - volume_l, 0.0, diameter_mm, rel_tol=0.0, max_iter=60)
 
 
 def depth_mm(shape: str, height_mm: float, diameter_mm: float) -> float:

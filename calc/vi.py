@@ -30,6 +30,7 @@ from bisect import bisect_left
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import Q, Result
+from .solve import bisect
 
 KV100_MIN_CST = 2.0  # D2270 does not define VI below this KV100
 TABLE_TOP_CST = 70.0  # above this KV100, the standard's equations replace Table 1
@@ -205,15 +206,7 @@ def find_root(f, lo: float, hi: float, steps: int = 400) -> float | None:
         left = right
     else:
         return None
-    for _ in range(200):
-        mid = 0.5 * (left + right)
-        if f(mid) < 0.0:
-            left = mid
-        else:
-            right = mid
-        if right - left <= 1e-14 * right:
-            break
-    return 0.5 * (left + right)
+    return bisect(f, left, right, rel_tol=1e-14, max_iter=200)
 
 
 def kv100_from_vi(kv40_cst: float, vi: float) -> float:
