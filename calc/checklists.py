@@ -22,6 +22,7 @@ not a diagnosis: they say where to start.
 
 from __future__ import annotations
 
+from .errors import InputError
 from .registry import Field, Output
 from .result import COMMON_PRACTICE, Cause, Q, Result, Text, text
 
@@ -32,6 +33,8 @@ AGAINST = -2.0
 
 TOPIC = "Troubleshooting"
 BASIS = "weighted scoring of symptoms and readings, common practice"
+# The basis of the checklists' own verdicts on a reading against its limit.
+READING_BASIS = COMMON_PRACTICE + ", from memory"
 
 # What every checklist shows above its ranked causes.
 RANKING_OUTPUTS = (
@@ -64,6 +67,23 @@ class Scoreboard:
         for key in keys:
             self.add(key, points, template, *args)
 
+    def weigh(self, key: str, beyond: bool, points: float, beyond_reason: str,
+              within_reason: str, *args: Q) -> None:
+        """A reading against its limit: `points` to `key` when `beyond` it, else AGAINST.
+
+        Both reasons take the same quantities `args`.
+
+        >>> board = Scoreboard((("a", "First cause"),))
+        >>> board.weigh("a", False, STRONG, "{0} over the limit", "{0} within the limit",
+        ...             Q(1.0, "percent"))
+        >>> board.points["a"]
+        -2.0
+        """
+        if beyond:
+            self.add(key, points, beyond_reason, *args)
+        else:
+            self.add(key, AGAINST, within_reason, *args)
+
     def ranked(self) -> list[Cause]:
         """All causes, most likely first; ties keep the checklist's order."""
         order = {key: i for i, (key, _) in enumerate(self.causes)}
@@ -72,11 +92,14 @@ class Scoreboard:
         return sorted(causes, key=lambda c: (-c.score, order[c.key]))
 
 
-def checklist_result(board: Scoreboard, readings: int, caution: str) -> Result:
+def checklist_result(board: Scoreboard, readings: int, caution: str,
+                     verdicts: tuple | list = ()) -> Result:
     """The checklist's answer: ranked causes, the top one, and an overall verdict.
 
     `readings` counts the symptoms ticked and readings entered; `caution` is the
-    list's own safety sentence, always shown.
+    list's own safety sentence, always shown. `verdicts` are the checklist's own
+    (level, template, *quantities) on its readings, added after the ranking's verdict
+    on READING_BASIS.
 
     >>> board = Scoreboard((("a", "First cause"), ("b", "Second cause")))
     >>> board.add("b", WEAK, "noise at the pump")
@@ -105,12 +128,27 @@ def checklist_result(board: Scoreboard, readings: int, caution: str) -> Result:
             sentence = (f"Start with: {top.title}; then the next causes in the list, which "
                         "score close.")
         result.add("watch", BASIS, sentence)
+    for level, template, *args in verdicts:
+        result.add(level, READING_BASIS, template, *args)
     result.note(caution)
     result.note("The ranking says where to start, not what is wrong: confirm each cause with its "
                 "checks, and follow the equipment maker's manual, local codes and licensed "
                 "practice.")
     result.sources.append("Ranking: " + BASIS)
     return result
+
+
+def both_or_neither(message: str, **readings) -> None:
+    """Raise InputError on the first blank of readings that only mean something together.
+
+    >>> both_or_neither("enter both or neither", oil_volume=200.0, pump_flow=None)
+    Traceback (most recent call last):
+    ...
+    calc.errors.InputError: pump_flow: enter both or neither
+    """
+    blank = [key for key, value in readings.items() if value is None]
+    if blank and len(blank) < len(readings):
+        raise InputError(blank[0], message)
 
 
 def count_entered(*values) -> int:

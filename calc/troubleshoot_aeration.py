@@ -9,8 +9,7 @@ from __future__ import annotations
 
 from . import foam, tank
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
-from .errors import InputError
+                         both_or_neither, count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
 from .result import Q
 
@@ -125,10 +124,8 @@ def checklist_aeration(foam_on_surface=False, milky_clears=False, pump_noise=Fal
                        level_low=False, after_topup=False, grade="VG 46", air_release=None,
                        seq1_tendency=None, seq1_stability=None, oil_volume=None, pump_flow=None):
     """Rank the causes of air in the oil from symptoms and readings."""
-    if (oil_volume is None) != (pump_flow is None):
-        missing = "pump_flow" if pump_flow is None else "oil_volume"
-        raise InputError(missing, "enter both the oil volume and the pump flow for the dwell "
-                                  "time, or neither")
+    both_or_neither("enter both the oil volume and the pump flow for the dwell time, or neither",
+                    oil_volume=oil_volume, pump_flow=pump_flow)
     board = Scoreboard(CAUSES)
     if foam_on_surface:
         board.add_each(("suction-leak", "return-line", "tank-dwell", "contaminated-oil",

@@ -9,10 +9,10 @@ speed in the suction line.
 from __future__ import annotations
 
 from . import suction
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
+from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, tool
-from .result import COMMON_PRACTICE, Q
+from .result import Q
 
 CAUSES = (
     ("cavitation", "Pump starving at the inlet"),
@@ -37,15 +37,13 @@ def _score_readings(board: Scoreboard, inlet, pump_min, velocity) -> list[tuple]
     verdicts = []
     if inlet is not None:
         limit = MIN_INLET_BAR_ABS if pump_min is None else pump_min
+        args = (Q(inlet, "pressure"), Q(limit, "pressure"))
+        board.weigh("cavitation", inlet < limit, STRONG,
+                    "inlet pressure {0} absolute, below the pump's {1}",
+                    "inlet pressure {0} absolute, above the pump's {1}", *args)
         if inlet < limit:
-            board.add("cavitation", STRONG, "inlet pressure {0} absolute, below the pump's {1}",
-                      Q(inlet, "pressure"), Q(limit, "pressure"))
             verdicts.append(("act", "Inlet pressure {0} absolute, below the {1} the pump needs: "
-                             "it is starving; do not run it at full speed until found.",
-                             Q(inlet, "pressure"), Q(limit, "pressure")))
-        else:
-            board.add("cavitation", AGAINST, "inlet pressure {0} absolute, above the pump's {1}",
-                      Q(inlet, "pressure"), Q(limit, "pressure"))
+                             "it is starving; do not run it at full speed until found.", *args))
     if velocity is not None and velocity > MAX_SUCTION_VELOCITY:
         board.add("cavitation", MODERATE, "suction line velocity {0}, above the {1} common "
                   "practice allows", Q(velocity, "velocity"), Q(MAX_SUCTION_VELOCITY, "velocity"))
@@ -113,9 +111,7 @@ def checklist_noisy_pump(worse_cold=False, whine=False, rattle=False, foam=False
     entered = count_entered(worse_cold, whine, rattle, foam, strainer_old, level_low, vibration,
                             after_pump_work, noise_at_setting, slow_or_hot, inlet_pressure,
                             suction_velocity)
-    result = checklist_result(board, entered, CAUTION)
-    for level, template, *args in verdicts:
-        result.add(level, COMMON_PRACTICE + ", from memory", template, *args)
+    result = checklist_result(board, entered, CAUTION, verdicts)
     if inlet_pressure is not None and pump_min_inlet is None:
         result.note("The pump's minimum inlet pressure was taken as 0.8 bar absolute (common "
                     "practice): the pump maker's data sheet takes precedence.")

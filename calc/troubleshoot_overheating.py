@@ -7,11 +7,11 @@ temperature the tank and cooler should reach; enter the measured ones here.
 
 from __future__ import annotations
 
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, both_or_neither,
+                         checklist_result, count_entered, flag, RANKING_OUTPUTS)
 from .errors import InputError
 from .registry import Field, tool
-from .result import COMMON_PRACTICE, Q
+from .result import Q
 
 CAUSES = (
     ("cooler", "Cooler not taking the heat away"),
@@ -62,19 +62,17 @@ def _score_temperatures(board: Scoreboard, temp, cooler_in, cooler_out, ambient)
                       Q(ambient, _T))
 
 
-def _temperature_verdict(result, temp) -> None:
+def _temperature_verdicts(temp) -> list[tuple]:
+    """The (level, template, *Q) verdict on the tank temperature, if one was entered."""
     if temp is None:
-        return
-    basis = COMMON_PRACTICE + ", from memory"
+        return []
     if temp > ACT_C:
-        result.add("act", basis, "Oil at {0}, above {1}: it ages fast and seals harden; reduce "
-                   "the load and find the cause now.", Q(temp, _T), Q(ACT_C, _T))
-    elif temp > WATCH_C:
-        result.add("watch", basis, "Oil at {0}, above the {1} it is best kept under.",
-                   Q(temp, _T), Q(WATCH_C, _T))
-    else:
-        result.add("ok", basis, "Oil at {0}, within the usual range up to {1}.",
-                   Q(temp, _T), Q(WATCH_C, _T))
+        return [("act", "Oil at {0}, above {1}: it ages fast and seals harden; reduce the load "
+                 "and find the cause now.", Q(temp, _T), Q(ACT_C, _T))]
+    if temp > WATCH_C:
+        return [("watch", "Oil at {0}, above the {1} it is best kept under.",
+                 Q(temp, _T), Q(WATCH_C, _T))]
+    return [("ok", "Oil at {0}, within the usual range up to {1}.", Q(temp, _T), Q(WATCH_C, _T))]
 
 
 @tool(
@@ -109,10 +107,8 @@ def checklist_overheating(hot_when_idle=False, relief_hot=False, hissing_valve=F
                           level_low=False, hot_room=False, after_oil_change=False, temp=None,
                           cooler_in=None, cooler_out=None, ambient=None):
     """Rank the causes of hot oil from symptoms and temperatures."""
-    if (cooler_in is None) != (cooler_out is None):
-        missing = "cooler_out" if cooler_out is None else "cooler_in"
-        raise InputError(missing, "enter the oil temperature both into and out of the cooler, "
-                                  "or neither")
+    both_or_neither("enter the oil temperature both into and out of the cooler, or neither",
+                    cooler_in=cooler_in, cooler_out=cooler_out)
     if cooler_in is not None and cooler_out > cooler_in + 1.0:
         raise InputError("cooler_out", "oil leaving a cooler cannot be warmer than oil going in: "
                                        "check which reading is which")
@@ -141,8 +137,7 @@ def checklist_overheating(hot_when_idle=False, relief_hot=False, hissing_valve=F
     entered = count_entered(hot_when_idle, relief_hot, hissing_valve, slow_under_load,
                             pump_case_hot, cooler_dirty, level_low, hot_room, after_oil_change,
                             temp, cooler_in, ambient)
-    result = checklist_result(board, entered, CAUTION)
-    _temperature_verdict(result, temp)
+    result = checklist_result(board, entered, CAUTION, _temperature_verdicts(temp))
     result.sources.append("Oil temperatures 60 / 80 °C, cooler drop 3 K, 20 K above the air: "
                           "common practice, from memory")
     return result

@@ -58,19 +58,15 @@ def _score_air(board: Scoreboard, air_content, pressure):
     if air_content is None:
         return None
     if pressure is None:
-        if air_content >= AIR_WATCH_PCT:
-            board.add("entrained-air", STRONG, "{0} air in the oil, at or above {1}",
-                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
-        else:
-            board.add("entrained-air", AGAINST, "{0} air in the oil, under {1}",
-                      Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
+        board.weigh("entrained-air", air_content >= AIR_WATCH_PCT, STRONG,
+                    "{0} air in the oil, at or above {1}", "{0} air in the oil, under {1}",
+                    Q(air_content, "percent"), Q(AIR_WATCH_PCT, "percent"))
         return None
     loss = stiffness_loss_pct(air_content, pressure)
-    args = (Q(air_content, "percent"), Q(pressure, "pressure"), Q(loss, "percent"))
-    if loss >= air.LOSS_WATCH_PCT:
-        board.add("entrained-air", STRONG, "{0} air makes the oil {2} softer at {1}", *args)
-    else:
-        board.add("entrained-air", AGAINST, "{0} air makes the oil only {2} softer at {1}", *args)
+    board.weigh("entrained-air", loss >= air.LOSS_WATCH_PCT, STRONG,
+                "{0} air makes the oil {2} softer at {1}",
+                "{0} air makes the oil only {2} softer at {1}",
+                Q(air_content, "percent"), Q(pressure, "pressure"), Q(loss, "percent"))
     return loss
 
 

@@ -12,7 +12,7 @@ from . import water
 from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
                          count_entered, flag, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
-from .result import COMMON_PRACTICE, Q
+from .result import Q
 
 CAUSES = (
     ("condensation", "Condensation from humid air through the breather"),
@@ -152,14 +152,12 @@ def checklist_water(milky_oil=False, free_water=False, cools_overnight=False, ru
     entered = count_entered(milky_oil, free_water, cools_overnight, rust_top, washdown,
                             seals_worn, water_cooler, cooling_water_lost, after_topup,
                             drums_outside, ppm, rh, temp)
-    result = checklist_result(board, entered, CAUTION)
+    result = checklist_result(board, entered, CAUTION, verdicts)
     result.values["saturation"] = saturation
     if saturation is not None and rh is None:
         result.note("Saturation worked out from {0} at {1} with the preset line of this oil type "
                     "(from memory); the water-in-oil tool takes an own calibration.",
                     Q(ppm, "ppm"), Q(temp, "temperature"))
-    for level, template, *args in verdicts:
-        result.add(level, COMMON_PRACTICE + ", from memory", template, *args)
     result.sources += ["Saturation: calc.water preset lines, from memory"]
     result.sources.append("Water limits 200 / 500 / 1000 ppm and 80 / 100 % saturation: "
                           "common practice, from memory")
