@@ -388,6 +388,9 @@ def filter_beta(beta: float, upstream: float, downstream: float | None = None) -
         if upstream <= 0.0 or downstream <= 0.0:
             raise InputError("downstream", "both counts must be above zero to give a ratio")
         measured = upstream / downstream
+        if not math.isfinite(measured):
+            raise InputError("downstream", "the two counts give a ratio too large to mean anything: "
+                                           "check the count after the filter")
         values["beta_measured"] = measured
         values["efficiency_measured"] = beta_efficiency_pct(measured) if measured >= 1.0 else None
         if measured < beta:
