@@ -15,6 +15,8 @@ import { loadPyodide } from "./pyodide/pyodide.mjs";
 const base = new URL("./", import.meta.url);
 const pyodideURL = new URL("pyodide/", base);
 const DEFAULT_HEAP_BYTES = 30 * 1024 * 1024;
+const SNAPSHOT_FILE = "snapshot.bin";
+const SPARSE_MAGIC = 0x315a5053; // "SPZ1" little-endian
 let runJson = null;
 let reexpressJson = null;
 
@@ -42,18 +44,69 @@ function hex(buffer) {
   return Array.from(new Uint8Array(buffer), (b) => b.toString(16).padStart(2, "0")).join("");
 }
 
-// The snapshot's bytes once they are known to be this build's, else a rejection saying why.
-async function snapshotBytes(meta, wheelSha) {
-  if (meta.format !== 1) throw new Error("snapshot format " + meta.format + " is not known here");
-  if (meta.wheel_sha256 !== wheelSha) throw new Error("snapshot is from another build");
-  const response = await fetch(new URL(meta.file, pyodideURL));
-  if (!response.ok) throw new Error(`snapshot: HTTP ${response.status}`);
-  const bytes = new Uint8Array(await response.arrayBuffer());
-  if (bytes.length !== meta.bytes) throw new Error(`snapshot is ${bytes.length} bytes, not ${meta.bytes}`);
-  const heap = bytes.length - new DataView(bytes.buffer).getUint32(4, true);
-  if (heap > DEFAULT_HEAP_BYTES) throw new Error(`snapshot heap of ${heap} bytes outgrows the restore's ${DEFAULT_HEAP_BYTES}`);
-  if (hex(await crypto.subtle.digest("SHA-256", bytes)) !== meta.sha256) throw new Error("snapshot is corrupt (sha256 differs)");
-  return bytes;
+// Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
+// starts at once too, with promises of the lock file and the snapshot: reading the snapshot
+// from the cache then overlaps with Pyodide loading its own script.
+const lockRequest = fetchJSON("pyodide-lock.json");
+const metaRequest = fetchJSON("snapshot.json").catch((err) => {
+  throw new Error("no snapshot in this build (" + err.message + ")");
+});
+metaRequest.catch(() => {});
+const storedSnapshot = fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
+  if (!response.ok) throw new Error(`${SNAPSHOT_FILE}: HTTP ${response.status}`);
+  return new Uint8Array(await response.arrayBuffer());
+});
+storedSnapshot.catch(() => {});
+
+// The stored form leaves out the heap's long runs of zero bytes (sitebuild/snapshot.py):
+// "SPZ1", the full size, the number of chunks, then per chunk its offset, length and bytes.
+function expand(stored) {
+  const view = new DataView(stored.buffer, stored.byteOffset, stored.byteLength);
+  if (stored.length < 12 || view.getUint32(0, true) !== SPARSE_MAGIC) throw new Error("snapshot is corrupt (not a stored snapshot)");
+  const size = view.getUint32(4, true);
+  const count = view.getUint32(8, true);
+  const out = new Uint8Array(size);
+  let at = 12;
+  for (let i = 0; i < count; i++) {
+    if (at + 8 > stored.length) throw new Error("snapshot is corrupt (chunk table)");
+    const offset = view.getUint32(at, true);
+    const length = view.getUint32(at + 4, true);
+    at += 8;
+    if (offset + length > size || at + length > stored.length) throw new Error("snapshot is corrupt (chunk bounds)");
+    out.set(stored.subarray(at, at + length), offset);
+    at += length;
+  }
+  if (at !== stored.length) throw new Error("snapshot is corrupt (trailing bytes)");
+  return out;
+}
+
+// The snapshot's bytes and their digest once they are known to be this build's, else a
+// rejection saying why. The digest runs beside the restore; it is checked before use.
+function snapshotBytes() {
+  const stored = (async () => {
+    const lock = await lockRequest;
+    const meta = await metaRequest;
+    const wheelSha = lock.packages.sumpside.sha256;
+    if (meta.format !== 2) throw new Error("snapshot format " + meta.format + " is not known here");
+    if (meta.wheel_sha256 !== wheelSha) throw new Error("snapshot is from another build");
+    const data = await storedSnapshot;
+    if (data.length !== meta.stored_bytes) throw new Error(`snapshot is ${data.length} bytes, not ${meta.stored_bytes}`);
+    return data;
+  })();
+  const digest = stored.then((data) => crypto.subtle.digest("SHA-256", data)).then(hex);
+  const bytes = stored.then(async (data) => {
+    const meta = await metaRequest;
+    const full = expand(data);
+    if (full.length !== meta.bytes) throw new Error(`snapshot expands to ${full.length} bytes, not ${meta.bytes}`);
+    const heap = full.length - new DataView(full.buffer).getUint32(4, true);
+    if (heap > DEFAULT_HEAP_BYTES) throw new Error(`snapshot heap of ${heap} bytes outgrows the restore's ${DEFAULT_HEAP_BYTES}`);
+    return full;
+  });
+  // loadPyodide awaits the bytes only later: mark both handled so an early rejection is not
+  // reported as unhandled (it still fails the restore, which falls back).
+  digest.catch(() => {});
+  bytes.catch(() => {});
+  return { bytes, digest };
 }
 
 function bind(pyodide) {
@@ -62,13 +115,14 @@ function bind(pyodide) {
   reexpressJson = (text) => bridge.reexpress_json(text);
 }
 
-async function bootSnapshot(lock, meta, wheelSha) {
-  // The bytes arrive while Pyodide compiles its wasm; a rejection there fails loadPyodide.
-  // loadPyodide awaits them only later: mark the promise handled so an early rejection is
-  // not reported as unhandled (it still fails loadPyodide, which falls back).
-  const bytes = snapshotBytes(meta, wheelSha);
-  bytes.catch(() => {});
-  const pyodide = await loadPyodide({ ...options(lock), _loadSnapshot: bytes });
+async function bootSnapshot() {
+  // A rejection of the bytes fails loadPyodide; the digest is checked before any use.
+  const { bytes, digest } = snapshotBytes();
+  const pyodide = await loadPyodide({ ...options(lockRequest), _loadSnapshot: bytes });
+  const lock = await lockRequest;
+  const meta = await metaRequest;
+  const wheelSha = lock.packages.sumpside.sha256;
+  if (await digest !== meta.sha256) throw new Error("snapshot is corrupt (sha256 differs)");
   const stamped = pyodide.runPython("getattr(__import__('calc'), '_snapshot_wheel_sha256', '')");
   if (stamped !== wheelSha) throw new Error("restored interpreter is from another build");
   // A restored interpreter starts with the snapshot's random state: give it a fresh one.
@@ -106,14 +160,9 @@ async function bootNormal(lock) {
 async function boot() {
   const started = performance.now();
   status("starting", "Starting calculator…");
-  const lock = await fetchJSON("pyodide-lock.json");
-  const wheelSha = lock.packages.sumpside.sha256;
   let note = "";
   try {
-    const meta = await fetchJSON("snapshot.json").catch((err) => {
-      throw new Error("no snapshot in this build (" + err.message + ")");
-    });
-    await bootSnapshot(lock, meta, wheelSha);
+    await bootSnapshot();
     postMessage({ type: "ready", ms: Math.round(performance.now() - started), mode: "snapshot" });
     return;
   } catch (err) {
@@ -123,7 +172,7 @@ async function boot() {
     status("starting", "Starting calculator the slow way (quick start unavailable: " + note + ")…",
       { mode: "normal", note });
   }
-  await bootNormal(lock);
+  await bootNormal(await lockRequest);
   postMessage({ type: "ready", ms: Math.round(performance.now() - started), mode: "normal", note });
 }
 

@@ -10,6 +10,7 @@ import json
 import pytest
 
 from calc import bridge
+from sitebuild import snapshot
 
 from .conftest import copy_dist, open_app, wait_answer
 
@@ -39,9 +40,12 @@ def _answers_like_the_cli(page) -> None:
 def test_the_built_snapshot_belongs_to_this_build(dist):
     meta = json.loads((dist / "pyodide" / "snapshot.json").read_text())
     lock = json.loads((dist / "pyodide" / "pyodide-lock.json").read_text())
-    data = (dist / "pyodide" / meta["file"]).read_bytes()
+    stored = (dist / "pyodide" / meta["file"]).read_bytes()
     assert meta["wheel_sha256"] == lock["packages"]["sumpside"]["sha256"]
-    assert (len(data), hashlib.sha256(data).hexdigest()) == (meta["bytes"], meta["sha256"])
+    assert (len(stored), hashlib.sha256(stored).hexdigest()) == (meta["stored_bytes"], meta["sha256"])
+    full = snapshot.unsparse(stored)
+    assert len(full) == meta["bytes"] and full[:4] != stored[:4]  # the stored form is the sparse one
+    assert snapshot.heap_bytes(full) == meta["heap_bytes"]
     # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
     assert meta["heap_bytes"] <= 30 * 1024 * 1024
     assert json.loads(meta["probe_answer"]) == bridge.run(meta["probe"]["tool"], meta["probe"]["inputs"])
@@ -73,7 +77,7 @@ def _break(folder, how: str) -> None:
         data[len(data) // 2] ^= 0xFF  # one flipped byte in the heap: Pyodide itself would not notice
         snap.write_bytes(bytes(data))
     elif how == "truncated":
-        snap.write_bytes(snap.read_bytes()[: meta["bytes"] // 2])
+        snap.write_bytes(snap.read_bytes()[: meta["stored_bytes"] // 2])
     elif how == "other-build":
         meta["wheel_sha256"] = "0" * 64
     elif how == "other-answer":
@@ -81,9 +85,10 @@ def _break(folder, how: str) -> None:
         meta["probe_answer"] = meta["probe_answer"].replace('"ok": true', '"ok": true, "x": 1', 1)
     elif how == "too-big":
         # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
-        data = snap.read_bytes() + bytes(1024 * 1024)
+        full = snapshot.unsparse(snap.read_bytes()) + bytes(1024 * 1024)
+        data = snapshot.sparse(full)
         snap.write_bytes(data)
-        meta["bytes"], meta["sha256"] = len(data), hashlib.sha256(data).hexdigest()
+        meta.update(bytes=len(full), stored_bytes=len(data), sha256=hashlib.sha256(data).hexdigest())
     meta_path.write_text(json.dumps(meta))
     # The server prefers the .gz twins: keep them in step with the files changed above.
     for path in (snap, meta_path):

@@ -1,0 +1,398 @@
+"""Start-up and latency benchmark of the built app against a bare Pyodide page.
+
+    python -m sitebuild.bench [--repeat 3] [--changes 300] [--out bench/results/latest.json]
+
+`make bench` builds first, then runs this. It copies dist/ to a temporary folder, writes
+beside it a bare page that only boots the same Pyodide (same files, same .gz twins, same
+kind of service worker) the plain way in a module worker and computes one Python
+expression, serves both with sitebuild.serve on 127.0.0.1 and drives Debian's Chromium
+with Playwright. Every figure is the median of --repeat runs, each in a fresh browser
+context; times are milliseconds from navigation start (the page's performance.now()):
+
+- first paint and "shell usable": the later of the first contentful paint and the end of
+  DOMContentLoaded (the page's module script has run, so navigation, checklists and
+  cautions work; no Python is involved);
+- first computed answer: the app's first viscosity answer shown in the page, the bare
+  page's first Python result; first visit (empty profile), warm reload (service worker
+  and cache in place), offline reload (network off); the same for the bare page, and
+  app / bare for each: the ratio is the figure that carries across machines;
+- input change to answer: a changed temperature submitted (the form computes at once on
+  submit) until the new answer is in the page, over --changes changes; and, for a few, a
+  typed change, which waits for the page's typing pause first;
+- bytes on a first visit by file, raw and as sent (the .gz twin when there is one);
+- the boot figures again with Chromium's CPU throttled 4x (Emulation.setCPUThrottlingRate,
+  applied to the page and, through auto-attach, to its workers) as a stand-in for a phone.
+
+It prints one table and writes the JSON. Nothing here asserts a time: tests never do.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import platform
+import shutil
+import statistics
+import sys
+import tempfile
+import time
+from pathlib import Path
+from urllib.parse import urlparse
+
+from sitebuild import serve
+
+ROOT = Path(__file__).resolve().parent.parent
+DIST = ROOT / "dist"
+OUT = ROOT / "bench" / "results" / "latest.json"
+CHROMIUM = "/usr/bin/chromium"
+CHROMIUM_ARGS = ["--no-sandbox", "--disable-background-networking", "--disable-component-update",
+                 "--disable-sync", "--no-first-run", "--disable-gpu", "--disable-quic"]
+PHONE = {"width": 360, "height": 740}
+TOOL = "viscosity-at-temperature"
+TIMEOUT_MS = 300_000
+# Pyodide's own files; with the snapshot they are not "the app's own files".
+PYODIDE_CORE = ("pyodide.mjs", "pyodide.asm.mjs", "pyodide.asm.wasm", "python_stdlib.zip")
+SNAPSHOT_FILES = ("snapshot.bin",)
+
+# Marks when the first answer (app) or first result (bare) reached the page.
+INIT_SCRIPT = """
+window.__answerAt = null;
+document.addEventListener("DOMContentLoaded", () => {
+  const el = document.querySelector('form[data-tool="%s"] [data-out="kv"]') || document.getElementById("bare-out");
+  if (!el) return;
+  const check = () => {
+    const text = el.textContent.trim();
+    if (window.__answerAt === null && text !== "\u2013" && text !== "" && text !== "booting")
+      window.__answerAt = performance.now();
+  };
+  new MutationObserver(check).observe(el, { childList: true, characterData: true, subtree: true });
+  check();
+});
+""" % TOOL
+
+READ_TIMES = """() => {
+  const nav = performance.getEntriesByType("navigation")[0];
+  const paint = Object.fromEntries(performance.getEntriesByType("paint").map((p) => [p.name, p.startTime]));
+  const fcp = paint["first-contentful-paint"] ?? paint["first-paint"] ?? null;
+  return { first_paint: paint["first-paint"] ?? fcp, first_contentful_paint: fcp,
+           dom_content_loaded: nav.domContentLoadedEventEnd,
+           shell_usable: Math.max(fcp ?? 0, nav.domContentLoadedEventEnd),
+           answer: window.__answerAt, mode: document.documentElement.dataset.ready || null };
+}"""
+
+LATENCY = """async ([n, typed]) => {
+  const form = document.querySelector('form[data-tool="%s"]');
+  const input = form.querySelector('[name="temp"]');
+  const out = form.querySelector('[data-out="kv"]');
+  const times = [];
+  for (let i = 0; i < n; i++) {
+    const changed = new Promise((resolve) => {
+      const mo = new MutationObserver(() => { mo.disconnect(); resolve(performance.now()); });
+      mo.observe(out, { childList: true, characterData: true, subtree: true });
+    });
+    input.value = String(20 + (i %% 2 ? 35 : 0) + (i %% 37));  // every change differs from the last
+    const t0 = performance.now();
+    if (typed) input.dispatchEvent(new Event("input", { bubbles: true }));
+    else form.requestSubmit();
+    times.push((await changed) - t0);
+  }
+  return times;
+}""" % TOOL
+
+BARE_PAGE = """<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><title>Bare Pyodide</title>
+<meta name="viewport" content="width=device-width, initial-scale=1"></head>
+<body><h1>Bare Pyodide boot</h1><p id="bare-out">booting</p>
+<script type="module" src="bare.js"></script></body></html>
+"""
+BARE_JS = """const worker = new Worker("bare-worker.js", { type: "module" });
+worker.onmessage = (event) => { document.getElementById("bare-out").textContent = event.data; };
+if ("serviceWorker" in navigator) navigator.serviceWorker.register("sw.js");
+"""
+BARE_WORKER = """import { loadPyodide } from "./pyodide/pyodide.mjs";
+const pyodide = await loadPyodide({ indexURL: new URL("pyodide/", import.meta.url).href });
+postMessage("sum = " + pyodide.runPython("sum(range(10))"));
+"""
+# The same cache-first scheme as the app's service worker, so reloads compare like with like.
+BARE_SW = """const CACHE = "bare-1";
+const PRECACHE = %s;
+self.addEventListener("install", (event) => event.waitUntil(
+  caches.open(CACHE).then((c) => c.addAll(PRECACHE.map((u) => new Request(u, { cache: "reload" }))))));
+self.addEventListener("activate", (event) => event.waitUntil(self.clients.claim()));
+self.addEventListener("fetch", (event) => {
+  if (event.request.method !== "GET") return;
+  event.respondWith(caches.open(CACHE).then((c) => c.match(event.request, { ignoreSearch: true }))
+    .then((hit) => hit || fetch(event.request)));
+});
+"""
+
+
+def write_bare_page(target: Path, dist: Path) -> None:
+    """A page that boots the build's Pyodide the plain way; never shipped in dist/."""
+    pyo = target / "pyodide"
+    pyo.mkdir(parents=True)
+    for name in PYODIDE_CORE + ("pyodide-lock.json",):
+        for variant in (name, name + ".gz"):
+            if (dist / "pyodide" / variant).exists():
+                shutil.copy2(dist / "pyodide" / variant, pyo / variant)
+    (target / "index.html").write_text(BARE_PAGE, encoding="utf-8")
+    (target / "bare.js").write_text(BARE_JS, encoding="utf-8")
+    (target / "bare-worker.js").write_text(BARE_WORKER, encoding="utf-8")
+    files = ["./", "bare.js", "bare-worker.js"] + [f"pyodide/{n}" for n in PYODIDE_CORE + ("pyodide-lock.json",)]
+    (target / "sw.js").write_text(BARE_SW % json.dumps(files), encoding="utf-8")
+
+
+def median(values):
+    values = [v for v in values if v is not None]
+    return round(statistics.median(values), 1) if values else None
+
+
+def percentile(values, q):
+    ordered = sorted(values)
+    return round(ordered[min(len(ordered) - 1, int(round(q / 100 * (len(ordered) - 1))))], 1)
+
+
+class Throttle:
+    """CPU throttling on the page and, through auto-attach, on the workers it starts."""
+
+    def __init__(self, context, page, rate: float):
+        self.rate = rate
+        self.session = context.new_cdp_session(page)
+        self.applied_to_workers = 0
+        if rate == 1:
+            return
+        self.session.send("Emulation.setCPUThrottlingRate", {"rate": rate})
+        self.session.on("Target.attachedToTarget", self._attached)
+        self.session.send("Target.setAutoAttach", {"autoAttach": True, "waitForDebuggerOnStart": True,
+                                                   "flatten": False})
+
+    def _attached(self, event):
+        sid = event["sessionId"]
+        for method, params in (("Emulation.setCPUThrottlingRate", {"rate": self.rate}),
+                               ("Runtime.runIfWaitingForDebugger", {})):
+            message = json.dumps({"id": 1, "method": method, "params": params})
+            try:
+                self.session.send("Target.sendMessageToTarget", {"sessionId": sid, "message": message})
+            except Exception:  # noqa: BLE001 - a target that cannot be throttled still runs
+                pass
+        if event.get("targetInfo", {}).get("type") in ("worker", "service_worker"):
+            self.applied_to_workers += 1
+
+
+def one_visit_cycle(browser, url: str, rate: float, watch_bytes: bool = False) -> dict:
+    """First visit, warm reload and offline reload of one page in a fresh context."""
+    context = browser.new_context(viewport=PHONE, service_workers="allow")
+    requests = []
+    if watch_bytes:
+        context.on("requestfinished", lambda r: requests.append(r))
+    page = context.new_page()
+    page.add_init_script(INIT_SCRIPT)
+    throttle = Throttle(context, page, rate)
+    figures = {}
+    try:
+        for phase in ("first_visit", "warm_reload", "offline_reload"):
+            if phase == "first_visit":
+                page.goto(url)
+            else:
+                if phase == "offline_reload":
+                    context.set_offline(True)
+                page.reload()
+            page.wait_for_function("() => window.__answerAt !== null", timeout=TIMEOUT_MS, polling=50)
+            figures[phase] = page.evaluate(READ_TIMES)
+            if phase == "first_visit":
+                # Reloads count only once the service worker holds the whole build.
+                page.wait_for_function("() => navigator.serviceWorker.controller !== null",
+                                       timeout=TIMEOUT_MS, polling=100)
+                page.evaluate("() => navigator.serviceWorker.ready.then(() => true)")
+                if watch_bytes:
+                    time.sleep(0.5)
+                    figures["requests"] = [(r.url, _body_size(r)) for r in requests]
+        figures["workers_throttled"] = throttle.applied_to_workers
+    finally:
+        context.close()
+    return figures
+
+
+def _body_size(request):
+    try:
+        return request.sizes()["responseBodySize"]
+    except Exception:  # noqa: BLE001 - a request without a response body
+        return None
+
+
+def latency(browser, url: str, changes: int) -> dict:
+    context = browser.new_context(viewport=PHONE, service_workers="allow")
+    page = context.new_page()
+    page.add_init_script(INIT_SCRIPT)
+    try:
+        page.goto(url)
+        page.wait_for_function("() => window.__answerAt !== null", timeout=TIMEOUT_MS, polling=50)
+        page.evaluate(LATENCY, [10, False])  # warm-up, not counted
+        submitted = page.evaluate(LATENCY, [changes, False])
+        typed = page.evaluate(LATENCY, [max(10, changes // 15), True])
+    finally:
+        context.close()
+    return {
+        "submitted": {"n": len(submitted), "median": median(submitted), "p95": percentile(submitted, 95)},
+        "typed": {"n": len(typed), "median": median(typed), "p95": percentile(typed, 95)},
+    }
+
+
+def bytes_by_file(requests, site: Path, prefix: str) -> list[dict]:
+    rows: dict[str, dict] = {}
+    for url, wire in requests:
+        path = urlparse(url).path
+        if not path.startswith(prefix):
+            continue
+        rel = path[len(prefix):] or "index.html"
+        if rel.endswith("/"):
+            rel += "index.html"
+        disk = site / prefix.strip("/") / rel
+        if not disk.is_file():
+            continue
+        twin = disk.with_name(disk.name + ".gz")
+        row = rows.setdefault(rel, {"file": rel, "requests": 0, "raw": disk.stat().st_size,
+                                    "compressed": (twin if twin.exists() else disk).stat().st_size,
+                                    "transferred": 0})
+        row["requests"] += 1
+        row["transferred"] += wire if wire is not None else row["compressed"]
+    return sorted(rows.values(), key=lambda r: -r["compressed"])
+
+
+def is_app_own(rel: str) -> bool:
+    name = rel.rsplit("/", 1)[-1]
+    return not (rel.startswith("pyodide/") and name in PYODIDE_CORE + SNAPSHOT_FILES)
+
+
+def summarize(runs: list[dict]) -> dict:
+    out = {}
+    for phase in ("first_visit", "warm_reload", "offline_reload"):
+        out[phase] = {key: median([r[phase][key] for r in runs])
+                      for key in ("first_paint", "shell_usable", "answer")}
+        out[phase]["modes"] = sorted({str(r[phase]["mode"]) for r in runs})
+        out[phase]["runs"] = [r[phase]["answer"] for r in runs]
+    out["workers_throttled"] = max(r.get("workers_throttled", 0) for r in runs)
+    return out
+
+
+def ratios(app: dict, bare: dict) -> dict:
+    return {phase: (round(app[phase]["answer"] / bare[phase]["answer"], 3)
+                    if app[phase]["answer"] and bare[phase]["answer"] else None)
+            for phase in ("first_visit", "warm_reload", "offline_reload")}
+
+
+def table(result: dict) -> str:
+    def ms(v):
+        return "–" if v is None else f"{v:,.0f}"
+    lines = []
+    for label, key in (("CPU as is", "normal"), ("CPU throttled 4x", "throttled")):
+        block = result["boot"].get(key)
+        if not block:
+            continue
+        app, bare, ratio = block["app"], block["bare"], block["ratio"]
+        lines.append(f"Boot, {label} (median of {result['repeat']}, ms from navigation)")
+        lines.append(f"| {'':<16} | {'first paint':>11} | {'shell usable':>12} | {'answer (app)':>12} "
+                     f"| {'answer (bare)':>13} | {'app / bare':>10} |")
+        lines.append("|" + "|".join("-" * w for w in (18, 13, 14, 14, 15, 12)) + "|")
+        for phase, name in (("first_visit", "first visit"), ("warm_reload", "warm reload"),
+                            ("offline_reload", "offline reload")):
+            r = "–" if ratio[phase] is None else f"{ratio[phase]:.2f}"
+            lines.append(f"| {name:<16} | {ms(app[phase]['first_paint']):>11} | {ms(app[phase]['shell_usable']):>12} "
+                         f"| {ms(app[phase]['answer']):>12} | {ms(bare[phase]['answer']):>13} | {r:>10} |")
+        lines.append(f"app boot mode: {', '.join(app['warm_reload']['modes'])}; "
+                     f"workers throttled: {app['workers_throttled']}" if key == "throttled"
+                     else f"app boot mode: {', '.join(app['warm_reload']['modes'])}")
+        lines.append("")
+    lat = result["latency"]
+    lines.append("Input change to answer (ms)")
+    lines.append(f"| {'':<34} | {'n':>4} | {'median':>7} | {'p95':>7} |")
+    lines.append("|" + "|".join("-" * w for w in (36, 6, 9, 9)) + "|")
+    lines.append(f"| {'submitted (computes at once)':<34} | {lat['submitted']['n']:>4} "
+                 f"| {lat['submitted']['median']:>7.1f} | {lat['submitted']['p95']:>7.1f} |")
+    lines.append(f"| {'typed (after the typing pause)':<34} | {lat['typed']['n']:>4} "
+                 f"| {lat['typed']['median']:>7.1f} | {lat['typed']['p95']:>7.1f} |")
+    lines.append("")
+    lines.append("Bytes on a first visit (requests: page and service worker precache)")
+    lines.append(f"| {'file':<40} | {'req':>3} | {'raw':>11} | {'compressed':>11} |")
+    lines.append("|" + "|".join("-" * w for w in (42, 5, 13, 13)) + "|")
+    for row in result["bytes"]["files"]:
+        lines.append(f"| {row['file']:<40} | {row['requests']:>3} | {row['raw']:>11,} | {row['compressed']:>11,} |")
+    b = result["bytes"]
+    lines.append(f"| {'all files (once each)':<40} | {'':>3} | {b['raw_total']:>11,} | {b['compressed_total']:>11,} |")
+    lines.append(f"| {'app own files (no Pyodide core, no snapshot)':<40} | {'':>3} | {b['app_own_raw']:>11,} "
+                 f"| {b['app_own_compressed']:>11,} |")
+    lines.append(f"transferred on the first visit, all requests: {b['transferred_total']:,} bytes")
+    return "\n".join(lines)
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--repeat", type=int, default=3, help="runs per figure (median reported)")
+    parser.add_argument("--changes", type=int, default=300, help="input changes for the latency figure")
+    parser.add_argument("--no-throttle", action="store_true", help="skip the 4x CPU throttled boots")
+    parser.add_argument("--dist", type=Path, default=DIST)
+    parser.add_argument("--out", type=Path, default=OUT)
+    args = parser.parse_args(argv)
+    dist = args.dist.resolve()
+    if not (dist / "index.html").exists():
+        sys.exit("bench: dist/ is not built: run `make bench` (it builds first) or `python build.py`")
+    try:
+        from playwright.sync_api import sync_playwright
+    except ImportError:
+        sys.exit("bench: playwright is missing: run `make setup`")
+    if not Path(CHROMIUM).exists():
+        sys.exit(f"bench: {CHROMIUM} is missing: `make chromium` installs it as root")
+
+    with tempfile.TemporaryDirectory(prefix="sumpside-bench-") as tmp:
+        site = Path(tmp)
+        shutil.copytree(dist, site / "app")  # a copy: a build running meanwhile cannot disturb it
+        write_bare_page(site / "bare", site / "app")
+        server, base = serve.start_in_thread(site)
+        app_url, bare_url = f"{base}app/#/tool/{TOOL}", f"{base}bare/"
+        result = {"when": time.strftime("%Y-%m-%dT%H:%M:%S%z"), "repeat": args.repeat,
+                  "machine": {"platform": platform.platform(), "cpus": __import__("os").cpu_count()},
+                  "build": json.loads((dist / "build.json").read_text()), "boot": {}}
+        try:
+            with sync_playwright() as playwright:
+                browser = playwright.chromium.launch(executable_path=CHROMIUM, headless=True, args=CHROMIUM_ARGS)
+                result["chromium"] = browser.version
+                rates = [("normal", 1)] + ([] if args.no_throttle else [("throttled", 4)])
+                byte_requests = None
+                for key, rate in rates:
+                    app_runs, bare_runs = [], []
+                    for i in range(args.repeat):
+                        # Interleaved, so a load change on the machine hits both alike.
+                        first = key == "normal" and i == 0
+                        app_runs.append(one_visit_cycle(browser, app_url, rate, watch_bytes=first))
+                        if first:
+                            byte_requests = app_runs[-1].pop("requests")
+                        bare_runs.append(one_visit_cycle(browser, bare_url, rate))
+                        print(f"bench: {key} run {i + 1}/{args.repeat}: app {app_runs[-1]['warm_reload']['answer']:.0f} ms "
+                              f"warm, bare {bare_runs[-1]['warm_reload']['answer']:.0f} ms warm", file=sys.stderr)
+                    app, bare = summarize(app_runs), summarize(bare_runs)
+                    result["boot"][key] = {"rate": rate, "app": app, "bare": bare, "ratio": ratios(app, bare)}
+                result["latency"] = latency(browser, app_url, args.changes)
+                browser.close()
+        finally:
+            server.shutdown()
+        files = bytes_by_file(byte_requests or [], site, "/app/")
+        own = [f for f in files if is_app_own(f["file"])]
+        result["bytes"] = {
+            "files": files,
+            "raw_total": sum(f["raw"] for f in files),
+            "compressed_total": sum(f["compressed"] for f in files),
+            "transferred_total": sum(f["transferred"] for f in files),
+            "app_own_raw": sum(f["raw"] for f in own),
+            "app_own_compressed": sum(f["compressed"] for f in own),
+        }
+    text = table(result)
+    result["table"] = text
+    args.out.parent.mkdir(parents=True, exist_ok=True)
+    args.out.write_text(json.dumps(result, indent=2, ensure_ascii=False), encoding="utf-8")
+    print(text)
+    print(f"\nwritten {args.out.relative_to(ROOT) if args.out.is_relative_to(ROOT) else args.out}")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
