@@ -43,7 +43,9 @@ class Handler(http.server.SimpleHTTPRequestHandler):
     def send_head(self):
         path = Path(self.translate_path(self.path))
         gz = path.with_name(path.name + ".gz")
-        if path.is_file() and gz.is_file() and "gzip" in self.headers.get("Accept-Encoding", ""):
+        # A twin older than its file is stale (the file was edited after the build): skip it.
+        if (path.is_file() and gz.is_file() and gz.stat().st_mtime >= path.stat().st_mtime
+                and "gzip" in self.headers.get("Accept-Encoding", "")):
             handle = open(gz, "rb")
             self.send_response(200)
             self.send_header("Content-Type", self.guess_type(str(path)))

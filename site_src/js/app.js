@@ -262,7 +262,8 @@ async function saveToLog(form) {
   const title = form.closest("[data-view]").querySelector("h1").textContent;
   await addEntry({
     at: new Date().toISOString(), machine: machineInput.value.trim(), tool: answer.tool, title,
-    units, inputs: readInputs(form), text: answer.text, level: answer.level,
+    units, inputs: readInputs(form), text: answer.text, values: answer.values, unitOf: answer.units,
+    level: answer.level,
     verdicts: answer.verdicts.map((v) => `${LEVEL_WORD[v.level]}: ${v.message}`),
   });
   state.textContent = "Saved to the log.";
@@ -272,7 +273,7 @@ async function renderLog() {
   const list = document.querySelector("[data-log-list]");
   const entries = (await allEntries()).sort((a, b) => b.at.localeCompare(a.at));
   if (!entries.length) { list.replaceChildren(Object.assign(document.createElement("p"), { textContent: "No saved results yet." })); return; }
-  list.replaceChildren(...entries.map((e) => {
+  list.replaceChildren(...trends(entries), ...entries.map((e) => {
     const card = document.createElement("article");
     card.className = "log-entry level-" + e.level;
     const h = document.createElement("h2");
@@ -294,6 +295,58 @@ async function renderLog() {
     card.append(h, when, dl, verdicts, remove);
     return card;
   }));
+}
+
+// A trend per machine and tool with two or more saved results: the first numeric output
+// against time, drawn as SVG (presentation attributes only: the CSP forbids inline style).
+const SVG_NS = "http://www.w3.org/2000/svg";
+
+function svgEl(name, attrs, text) {
+  const el = document.createElementNS(SVG_NS, name);
+  for (const [k, v] of Object.entries(attrs)) el.setAttribute(k, String(v));
+  if (text !== undefined) el.textContent = text;
+  return el;
+}
+
+function trends(entries) {
+  const groups = new Map();
+  for (const e of entries) {
+    const key = Object.entries(e.values || {}).find(([, v]) => typeof v === "number");
+    if (!key) continue;
+    const id = `${e.machine}|${e.tool}|${key[0]}|${e.units}`;
+    if (!groups.has(id)) groups.set(id, { e, key: key[0], points: [] });
+    groups.get(id).points.push([Date.parse(e.at), e.values[key[0]]]);
+  }
+  const charts = [];
+  for (const { e, key, points } of groups.values()) {
+    if (points.length < 2) continue;
+    points.sort((a, b) => a[0] - b[0]);
+    const [w, h, pad] = [320, 150, 34];
+    const xs = points.map((p) => p[0]), ys = points.map((p) => p[1]);
+    const [x0, x1] = [Math.min(...xs), Math.max(...xs)];
+    let [y0, y1] = [Math.min(...ys), Math.max(...ys)];
+    if (y0 === y1) { y0 -= 1; y1 += 1; }
+    const px = (x) => pad + (x1 === x0 ? 0.5 : (x - x0) / (x1 - x0)) * (w - 2 * pad);
+    const py = (y) => h - pad + -((y - y0) / (y1 - y0)) * (h - 2 * pad);
+    const label = `${e.title}${e.machine ? " · " + e.machine : ""}: ${key} (${(e.unitOf || {})[key] || ""})`;
+    const svg = svgEl("svg", { viewBox: `0 0 ${w} ${h}`, role: "img", class: "trend" });
+    svg.append(svgEl("title", {}, "Trend of " + label));
+    svg.append(svgEl("line", { x1: pad, y1: h - pad, x2: w - pad, y2: h - pad, stroke: "#000", "stroke-width": 1 }));
+    svg.append(svgEl("line", { x1: pad, y1: pad, x2: pad, y2: h - pad, stroke: "#000", "stroke-width": 1 }));
+    svg.append(svgEl("polyline", { points: points.map((p) => `${px(p[0]).toFixed(1)},${py(p[1]).toFixed(1)}`).join(" "),
+      fill: "none", stroke: "#0b3954", "stroke-width": 3 }));
+    for (const p of points) svg.append(svgEl("circle", { cx: px(p[0]).toFixed(1), cy: py(p[1]).toFixed(1), r: 4, fill: "#0b3954" }));
+    const fmt = (v) => Number(v.toPrecision(3)).toString();
+    svg.append(svgEl("text", { x: pad - 4, y: pad + 4, "text-anchor": "end", "font-size": 11 }, fmt(y1)));
+    svg.append(svgEl("text", { x: pad - 4, y: h - pad + 4, "text-anchor": "end", "font-size": 11 }, fmt(y0)));
+    svg.append(svgEl("text", { x: pad, y: h - 10, "font-size": 11 }, new Date(x0).toLocaleDateString()));
+    svg.append(svgEl("text", { x: w - pad, y: h - 10, "text-anchor": "end", "font-size": 11 }, new Date(x1).toLocaleDateString()));
+    const figure = document.createElement("figure");
+    figure.className = "trend-figure";
+    figure.append(svg, Object.assign(document.createElement("figcaption"), { textContent: label }));
+    charts.push(figure);
+  }
+  return charts;
 }
 
 function download(name, type, text) {

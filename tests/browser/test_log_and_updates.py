@@ -34,6 +34,20 @@ def test_log_survives_reload_and_exports(page, base_url, watch):
     assert not watch.errors
 
 
+def test_two_saved_readings_draw_a_trend(page, base_url, watch):
+    open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    _save_one(page)
+    page.locator('form[data-tool="viscosity-at-temperature"] [name="temp"]').fill("70")
+    page.wait_for_function("""() => document.querySelector(
+        'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent !== '30.0 cSt'""")
+    _save_one(page)
+    open_app(page, base_url, "#/log")
+    trend = page.locator("[data-log-list] figure.trend-figure svg polyline")
+    trend.wait_for()
+    assert len(trend.get_attribute("points").split()) == 2
+    assert not watch.errors
+
+
 def test_new_build_is_offered_then_taken_whole_and_the_log_is_kept(page, dist, serve_dir, tmp_path, watch):
     site = copy_dist(dist, tmp_path)
     base = serve_dir(site)
