@@ -47,6 +47,22 @@ function hex(buffer) {
 // Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
 // starts at once too, with promises of the lock file and the snapshot: reading the snapshot
 // from the cache then overlaps with Pyodide loading its own script.
+// Pyodide compiles its wasm only once its script has loaded and the snapshot is in hand;
+// compiling it here from the start runs that beside both. Pyodide's own instantiation then
+// gets this compiled module (a new instance of it, for the fallback boot too); any other
+// streaming instantiation, or a failed compile, goes the original way.
+const wasmURL = new URL("pyodide.asm.wasm", pyodideURL).href;
+const wasmModule = WebAssembly.compileStreaming(fetch(wasmURL));
+wasmModule.catch(() => {});
+const instantiateStreaming = WebAssembly.instantiateStreaming;
+WebAssembly.instantiateStreaming = async (source, imports) => {
+  const response = await source;
+  if (response && response.url === wasmURL) {
+    const module = await wasmModule.catch(() => null);
+    if (module) return { instance: await WebAssembly.instantiate(module, imports), module };
+  }
+  return instantiateStreaming(response, imports);
+};
 const lockRequest = fetchJSON("pyodide-lock.json");
 const metaRequest = fetchJSON("snapshot.json").catch((err) => {
   throw new Error("no snapshot in this build (" + err.message + ")");
