@@ -62,7 +62,8 @@ def present(found: registry.Tool, result: Result, system: str) -> dict:
                      for v in result.verdicts],
         "notes": [n.render(show) for n in result.notes],
         "sources": list(result.sources),
-        "charts": dict(result.charts),
+        "charts": {name: draw(system) if callable(draw) else draw
+                   for name, draw in result.charts.items()},
         "ranked": [{"key": c.key, "title": c.title, "score": c.score,
                     "reasons": [r.render(show) for r in c.reasons]} for c in result.ranked],
     }

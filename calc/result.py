@@ -8,7 +8,7 @@ calc never formats a unit itself.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import NamedTuple
+from typing import Callable, NamedTuple
 
 LEVELS = ("ok", "watch", "act")
 
@@ -75,7 +75,9 @@ class Result:
     verdicts: list[Verdict] = field(default_factory=list)
     notes: list[Text] = field(default_factory=list)
     sources: list[str] = field(default_factory=list)
-    charts: dict[str, str] = field(default_factory=dict)
+    # SVG charts, each drawn by a function of the unit system ("metric" / "us"), so the
+    # edge can ask for the reader's units; calc itself never picks them.
+    charts: dict[str, Callable[[str], str]] = field(default_factory=dict)
     ranked: list[Cause] = field(default_factory=list)  # most likely first
 
     def note(self, template: str, *args: Q) -> None:

@@ -24,7 +24,7 @@ const lastAnswers = new Map(); // form -> last ok answer
 const calculator = startCalculator((msg) => {
   statusLine.dataset.state = msg.state;
   if (msg.state === "ready") {
-    statusLine.textContent = msg.mode === "snapshot" ? "Calculator ready" : "Calculator ready";
+    statusLine.textContent = msg.note ? "Calculator ready (started the slow way: " + msg.note + ")" : "Calculator ready";
     statusLine.title = `started in ${msg.ms} ms (${msg.mode})` + (msg.note ? ": " + msg.note : "");
     root.dataset.ready = msg.mode || "normal";
     computeVisible();
