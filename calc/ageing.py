@@ -28,8 +28,9 @@ from memory.
 from __future__ import annotations
 
 import math
+from functools import partial
 
-from . import chart
+from . import chart, units
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
@@ -175,8 +176,10 @@ CHART_W, CHART_H = 400.0, 330.0
 _CHART_BOX = (58.0, 34.0, 328.0, 236.0)  # left, top, width, height of the plot, viewBox units
 
 
-def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, arrhenius) -> str:
-    """SVG of life against temperature by both models (log life), the point at `temp_c`."""
+def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, arrhenius,
+               system: str = "metric") -> str:
+    """SVG of life against temperature by both models (log life), the point at `temp_c`;
+    temperature labelled in `system` units, ticks round in the shown unit."""
     t_low = min(ref_temp_c, temp_c) - 20.0
     t_high = max(ref_temp_c, temp_c) + 20.0
     temps = [t_low + (t_high - t_low) * k / 40 for k in range(41)]
@@ -185,9 +188,11 @@ def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, ar
                     y_scale=math.log10)
     life_now = doubling(temp_c, ref_life_h)
     px, py = ax.point(temp_c, life_now)
+    show = lambda value, quantity: units.show(value, quantity, system)  # noqa: E731
     body = [
-        chart.frame(ax, chart.ticks_linear(t_low, t_high), chart.ticks_125(*ax.y_range),
-                    "Oil temperature, °C", "Life, h (log scale)", chart.short),
+        chart.frame(ax, chart.unit_ticks(t_low, t_high, _T, system), chart.ticks_125(*ax.y_range),
+                    f"Oil temperature, {units.unit_label(_T, system)}",
+                    f"Life, {units.unit_label(_H, system)} (log scale)", chart.short),
         chart.polyline([ax.point(t, doubling(t, ref_life_h)) for t in temps], "life-doubling",
                        "#12357a", 4.0),
         chart.polyline([ax.point(t, arrhenius(t, ref_life_h)) for t in temps], "life-arrhenius",
@@ -196,9 +201,9 @@ def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, ar
         chart.text(_CHART_BOX[0] + 6, _CHART_BOX[1] + _CHART_BOX[3] - 8,
                    "solid: doubles per step; dashed: Arrhenius", "legend"),
     ]
-    title = f"Oil life against temperature: {chart.short(life_now)} h at {temp_c:.0f} °C"
-    desc = (f"Life halves for each step of heat from {chart.short(ref_life_h)} h at "
-            f"{ref_temp_c:.0f} °C (solid line); the Arrhenius line (dashed) bends away from it.")
+    title = f"Oil life against temperature: {show(life_now, _H)} at {show(temp_c, _T)}"
+    desc = (f"Life halves for each step of heat from {show(ref_life_h, _H)} at "
+            f"{show(ref_temp_c, _T)} (solid line); the Arrhenius line (dashed) bends away from it.")
     return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-life")
 
 
@@ -263,7 +268,7 @@ def oxidation_life(ref_life: float, ref_temp: float, temp: float, method: str, s
             equivalent_temperature_doubling(total, eq_h, ref_temp, step) if method == "doubling"
             else equivalent_temperature_arrhenius(total, eq_h, ref_temp, activation_j))
     result = Result(values=values)
-    result.charts["life"] = life_chart(ref_life, ref_temp, temp, doubling, arrhenius)
+    result.charts["life"] = partial(life_chart, ref_life, ref_temp, temp, doubling, arrhenius)
     _life_used_verdict(result, used, eq_h, ref_life)
     speed = ref_life / model(temp, ref_life)
     result.note("At {0} the oil ages {1} times as fast as at {2}.",

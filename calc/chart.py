@@ -17,6 +17,8 @@ import math
 from dataclasses import dataclass
 from typing import Callable, Iterable, Sequence
 
+from . import units
+
 FONT = "sans-serif"
 TEXT_SIZE = 14  # in viewBox units; a 400-unit-wide chart on a 360 px phone shows about 13 px
 
@@ -175,24 +177,52 @@ def ticks_linear(lo: float, hi: float, most: int = 8) -> list[float]:
     return [round(first + k * step, 9) for k in range(int((hi - first) / step + 1e-9) + 1)]
 
 
-def frame(axes: Axes, x_ticks: Sequence[float], y_ticks: Sequence[float], x_label: str,
+def unit_ticks(lo: float, hi: float, quantity: str, system: str,
+               most: int = 8) -> list[tuple[float, str]]:
+    """Ticks at round numbers in the unit shown in `system`, for an axis drawn in metric.
+
+    `lo`, `hi` are the axis range in calc's metric unit; each tick is (metric value, label),
+    so the axis mapping stays metric and only the labels change. 50 degF sits at 10 degC:
+
+    >>> [(round(c, 2), label) for c, label in unit_ticks(0.0, 100.0, "temperature", "us", 5)]
+    [(10.0, '50'), (37.78, '100'), (65.56, '150'), (93.33, '200')]
+    >>> unit_ticks(-12.0, 95.0, "temperature", "metric")[:2]
+    [(0.0, '0'), (20.0, '20')]
+    """
+    shown_lo, shown_hi = sorted(units.from_metric(v, quantity, system) for v in (lo, hi))
+    return [(units.to_metric(v, quantity, system), short(v))
+            for v in ticks_linear(shown_lo, shown_hi, most)]
+
+
+Ticks = Sequence[float] | Sequence[tuple[float, str]]
+
+
+def _labelled(ticks: Ticks, fmt: Callable[[float], str]) -> list[tuple[float, str]]:
+    return [t if isinstance(t, tuple) else (t, fmt(t)) for t in ticks]
+
+
+def frame(axes: Axes, x_ticks: Ticks, y_ticks: Ticks, x_label: str,
           y_label: str, fmt: Callable[[float], str] = lambda v: f"{v:g}") -> str:
-    """Plot border, grid lines at the ticks, tick labels and the two axis labels."""
+    """Plot border, grid lines at the ticks, tick labels and the two axis labels.
+
+    A tick is a data value (labelled with `fmt`) or a (data value, label) pair, as
+    `unit_ticks` gives for an axis shown in another unit than it is drawn in.
+    """
     left, top, w, h = axes.box
     parts = [element("rect", x=_num(left), y=_num(top), width=_num(w), height=_num(h),
                      fill="none", stroke="#000", stroke_width="1.5", **{"class": "frame"})]
-    for xv in x_ticks:
+    for xv, label in _labelled(x_ticks, fmt):
         x = axes.x(xv)
         parts.append(polyline(((x, top), (x, top + h)), "grid", "#999", 0.8))
-        parts.append(text(x, top + h + TEXT_SIZE + 4, fmt(xv), "tick", anchor="middle"))
+        parts.append(text(x, top + h + TEXT_SIZE + 4, label, "tick", anchor="middle"))
     last_y = math.inf
-    for yv in y_ticks:
+    for yv, label in _labelled(y_ticks, fmt):
         y = axes.y(yv)
         if abs(last_y - y) < TEXT_SIZE + 2:
             continue  # labels would overlap where a log-log scale crowds them
         last_y = y
         parts.append(polyline(((left, y), (left + w, y)), "grid", "#999", 0.8))
-        parts.append(text(left - 5, y + TEXT_SIZE / 3, fmt(yv), "tick", anchor="end"))
+        parts.append(text(left - 5, y + TEXT_SIZE / 3, label, "tick", anchor="end"))
     parts.append(text(left + w / 2, top + h + 2 * TEXT_SIZE + 10, x_label, "axis-label",
                       anchor="middle"))
     parts.append(text(left, top - 10, y_label, "axis-label", anchor="start"))

@@ -21,9 +21,10 @@ hydraulic power of a flow at a pressure drop (1 bar x 1 L/min = 100/60 W).
 from __future__ import annotations
 
 import math
+from functools import partial
 from typing import Callable
 
-from . import chart
+from . import chart, units
 from .convection import convection_coefficient, radiation_coefficient
 from .errors import InputError
 from .registry import Field, Output, tool
@@ -182,9 +183,11 @@ _CHART_BOX = (52.0, 34.0, 334.0, 236.0)  # left, top, width, height of the plot,
 
 
 def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_per_k: float,
-                 start_c: float, steady_c: float | None, target_c: float) -> str:
+                 start_c: float, steady_c: float | None, target_c: float,
+                 system: str = "metric") -> str:
     """SVG of the oil temperature against time for the tank alone, with the target and the
-    skin-burn line; the curve runs to 95 % of the way to steady (or to 150 degC)."""
+    skin-burn line; the curve runs to 95 % of the way to steady (or to 150 degC).
+    Temperatures are labelled in `system` units, ticks round in the shown unit."""
     end_c = 150.0 if steady_c is None else start_c + 0.95 * (steady_c - start_c)
     temps = [start_c + (end_c - start_c) * k / 40 for k in range(41)]
     hours = [0.0] + [time_to_temperature_min(load_kw, loss_kw, capacity_kj_per_k, start_c, t,
@@ -198,14 +201,17 @@ def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_
     # curve leaves the lower right free. Of two lines closer than a label, one label flips side.
     warming = end_c > start_c
     x_label, anchor = (left + 6, "start") if warming else (left + width - 4, "end")
-    marks = [(target_c, "target", "#2e6b2e", "6 3", f"target {target_c:.0f} °C")]
+    show = lambda value: units.show(value, "temperature", system)  # noqa: E731
+    marks = [(target_c, "target", "#2e6b2e", "6 3", f"target {show(target_c)}")]
     if t_low < BURN_C < t_high:
-        marks.append((BURN_C, "limit limit-burn", "#8b1a1a", "3 4", f"{BURN_C:.0f} °C burns skin"))
+        marks.append((BURN_C, "limit limit-burn", "#8b1a1a", "3 4", f"{show(BURN_C)} burns skin"))
     if steady_c is not None and t_low < steady_c < t_high:
-        marks.append((steady_c, "steady", "#12357a", "12 5", f"steady {steady_c:.0f} °C"))
+        marks.append((steady_c, "steady", "#12357a", "12 5", f"steady {show(steady_c)}"))
     marks.sort(key=lambda m: m[0], reverse=not warming)
-    body = [chart.frame(ax, chart.ticks_linear(0.0, hours[-1], 6), chart.ticks_linear(t_low, t_high),
-                        "Hours from start", "Oil temperature, °C", chart.short)]
+    body = [chart.frame(ax, chart.ticks_linear(0.0, hours[-1], 6),
+                        chart.unit_ticks(t_low, t_high, "temperature", system),
+                        f"Time from start, {units.unit_label('hours', system)}",
+                        f"Oil temperature, {units.unit_label('temperature', system)}", chart.short)]
     for n, (temp, cls, colour, dash, label) in enumerate(marks):
         after = marks[n + 1][0] if n + 1 < len(marks) else None
         crowded = after is not None and abs(ax.y(after) - ax.y(temp)) < 2 * chart.TEXT_SIZE
@@ -215,8 +221,9 @@ def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_
                             anchor=anchor)]
     body.append(chart.polyline([ax.point(h, t) for h, t in zip(hours, temps)], "oil-line",
                                "#12357a", 4.0))
-    steady_text = "no steady state below 300 °C" if steady_c is None else f"steady {steady_c:.0f} °C"
-    title = f"Oil temperature of the tank alone from {start_c:.0f} °C: {steady_text}"
+    steady_text = (f"no steady state below {show(STEADY_CAP_C)}" if steady_c is None
+                   else f"steady {show(steady_c)}")
+    title = f"Oil temperature of the tank alone from {show(start_c)}: {steady_text}"
     desc = ("Oil temperature against hours from start, with the target as a dashed line, the "
             "skin-burn temperature as a dotted line and the steady temperature as a long-dashed "
             "line.")
@@ -313,7 +320,8 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
             load, loss, capacity, start_c, start_c + 0.9 * (steady - start_c), steady),
     })
     if steady is None or abs(steady - start_c) > 0.5:
-        result.charts["warmup"] = warmup_chart(load, loss, capacity, start_c, steady, target)
+        result.charts["warmup"] = partial(warmup_chart, load, loss, capacity, start_c, steady,
+                                          target)
     _verdicts(result, load, steady, target, cooler)
     result.note("Walls are taken at the oil temperature and the air as still: a fan, wind or "
                 "open air sheds more, an enclosure, a wall close by or sun on the tank less.")

@@ -24,8 +24,9 @@ Petroleum Products", equations 1 to 4 (coefficients from memory of the standard)
 from __future__ import annotations
 
 import math
+from functools import partial
 
-from . import chart
+from . import chart, units
 from .errors import InputError
 from .iso3448 import GRADE_CHOICES, grade_midpoint
 from .registry import Field, Output, tool
@@ -242,11 +243,12 @@ def _d341_x(temp_c: float) -> float:
 
 
 def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
-               temp_c: float, kv_cst: float) -> str:
+               temp_c: float, kv_cst: float, system: str = "metric") -> str:
     """SVG of the oil's D341 line, the pump's window and the operating point.
 
     Axes as on an ASTM D341 chart: log log Z up, log absolute temperature across,
-    labelled in °C and cSt.
+    labelled in `system` units (°C or °F; cSt in both). Ticks are round in the shown
+    unit and sit at their true place on the log absolute temperature axis.
     """
     start_max, opt_high, opt_low, minimum = window
     kv_low = max(0.3, min(minimum, kv_cst) / 1.6)
@@ -257,36 +259,40 @@ def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
     t_high = min(_T_HIGH, max(edge_hot, temp_c + 5.0))
     ax = chart.Axes((t_low, t_high), (kv_low, kv_high), _CHART_BOX, _d341_x, _d341_y)
     left, top, width, _ = _CHART_BOX
+    show = lambda value, quantity: units.show(value, quantity, system)  # noqa: E731
+    cst = units.unit_label(_KV, system)
 
     line_from, line_to = max(t_low, edge_cold), min(t_high, edge_hot)
     line = [ax.point(t, walther_viscosity(t, a, b))
             for t in (line_from + (line_to - line_from) * k / 80 for k in range(81))]
     px, py = ax.point(temp_c, kv_cst)
-    label_anchor = "end" if px > left + width * 0.6 else "start"
+    label_anchor = "end" if px > left + width * 0.5 else "start"  # room for "-40.0 °F: 1230 cSt"
     label_dx = -12 if label_anchor == "end" else 12
     label_y = py - 10 if py - 10 > top + chart.TEXT_SIZE else py + 24  # stay inside the plot
     body = [
         chart.hband(ax, opt_low, opt_high, "band-optimum", "#d4e8d4"),
-        chart.frame(ax, chart.ticks_linear(t_low, t_high), chart.ticks_125(kv_low, kv_high),
-                    "Oil temperature, °C", "Viscosity, cSt (ASTM D341 scale)", chart.short),
+        chart.frame(ax, chart.unit_ticks(t_low, t_high, _T, system),
+                    chart.ticks_125(kv_low, kv_high),
+                    f"Oil temperature, {units.unit_label(_T, system)}",
+                    f"Viscosity, {cst} (ASTM D341 scale)", chart.short),
         chart.hline(ax, opt_high, "band-edge", "#2e6b2e", 1.5, "6 3"),
         chart.hline(ax, opt_low, "band-edge", "#2e6b2e", 1.5, "6 3"),
         chart.hline(ax, start_max, "limit limit-start", "#8b1a1a", 2.5, "12 5"),
         chart.hline(ax, minimum, "limit limit-min", "#8b1a1a", 2.5, "3 4"),
-        chart.text(left + width - 4, ax.y(start_max) - 5, f"start-up max {start_max:g} cSt",
+        chart.text(left + width - 4, ax.y(start_max) - 5, f"start-up max {start_max:g} {cst}",
                    "limit-label", anchor="end"),
-        chart.text(left + width - 4, ax.y(minimum) + 17, f"minimum {minimum:g} cSt",
+        chart.text(left + width - 4, ax.y(minimum) + 17, f"minimum {minimum:g} {cst}",
                    "limit-label", anchor="end"),
         chart.text(left + 6, (ax.y(opt_high) + ax.y(opt_low)) / 2 + 5, "optimum band",
                    "band-label", weight="bold", fill="#1f4d1f"),
         chart.polyline(line, "oil-line", "#12357a", 4.0),
         chart.marker(px, py, "operating-point"),
-        chart.text(px + label_dx, label_y, f"{temp_c:.0f} °C: {chart.short(kv_cst)} cSt",
+        chart.text(px + label_dx, label_y, f"{show(temp_c, _T)}: {show(kv_cst, _KV)}",
                    "point-label",
                    anchor=label_anchor, weight="bold"),
     ]
-    title = (f"Viscosity against temperature: {chart.short(kv_cst)} cSt at {temp_c:.0f} °C, "
-             f"pump window {start_max:g} / {opt_high:g} to {opt_low:g} / {minimum:g} cSt")
+    title = (f"Viscosity against temperature: {show(kv_cst, _KV)} at {show(temp_c, _T)}, "
+             f"pump window {start_max:g} / {opt_high:g} to {opt_low:g} / {minimum:g} {cst}")
     desc = ("The oil's line on ASTM D341 axes with the pump's optimum band shaded, the start-up "
             "maximum as a long-dashed line, the minimum as a short-dashed line, and the "
             "operating point marked with a ring.")
@@ -409,7 +415,7 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
                     f"batch may be up to 10 % either side. Its KV100 of {{2}} follows from VI "
                     f"{vi:g} (ASTM D2270).", Q(kv40, _KV), Q(40.0, _T), Q(kv100, _KV))
         result.sources.append("ISO 3448 (grade mid-point); ASTM D2270 (KV100 from VI)")
-    result.charts["viscosity"] = d341_chart(a, b, window, temp, kv)
+    result.charts["viscosity"] = partial(d341_chart, a, b, window, temp, kv)
     result.sources += ["ASTM D341 (Walther form with Z correction)",
                        "Pump window: common practice, typical of makers' data sheets"]
     return result

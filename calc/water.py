@@ -25,8 +25,9 @@ table).
 from __future__ import annotations
 
 import math
+from functools import partial
 
-from . import chart
+from . import chart, units
 from .errors import InputError
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
@@ -357,7 +358,8 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     if t_free is not None and shown_t_free is None and t_free < -60.0:
         result.note("The oil holds this water dissolved down to below {0}.", Q(-60.0, _T))
     warn_outside(result, line, (temp, temp_cold))
-    result.charts["saturation"] = saturation_chart(line, content, temp, temp_cold, shown_t_free)
+    result.charts["saturation"] = partial(saturation_chart, line, content, temp, temp_cold,
+                                          shown_t_free)
     result.sources += [line.source,
                        "Saturation line log10 S = A − B/T (van 't Hoff form)",
                        "ppm = (% saturation / 100) × S(T), definition of relative saturation",
@@ -404,8 +406,9 @@ _CHART_BOX = (56.0, 34.0, 330.0, 236.0)  # left, top, width, height of the plot,
 
 
 def saturation_chart(line: SaturationLine, content: float, temp_c: float, temp_cold_c: float,
-                     t_free: float | None) -> str:
-    """SVG of the saturation line (log ppm up, °C across), its 50 % line and the content."""
+                     t_free: float | None, system: str = "metric") -> str:
+    """SVG of the saturation line (log ppm up, temperature across in `system` units, ticks
+    round in the shown unit), its 50 % line and the content."""
     t_low = max(-40.0, min(temp_cold_c, t_free if t_free is not None else temp_cold_c) - 10.0)
     t_high = min(150.0, max(temp_c, t_free if t_free is not None else temp_c) + 15.0)
     s_low, s_high = line.saturation(t_low), line.saturation(t_high)
@@ -415,9 +418,11 @@ def saturation_chart(line: SaturationLine, content: float, temp_c: float, temp_c
     temps = [t_low + (t_high - t_low) * k / 60 for k in range(61)]
     left, top, width, _ = _CHART_BOX
     label_t = t_low + 0.04 * (t_high - t_low)
+    show = lambda value, quantity: units.show(value, quantity, system)  # noqa: E731
     body = [
-        chart.frame(ax, chart.ticks_linear(t_low, t_high), chart.ticks_125(y_low, y_high),
-                    "Oil temperature, °C", "Water, ppm (log scale)", chart.short),
+        chart.frame(ax, chart.unit_ticks(t_low, t_high, _T, system), chart.ticks_125(y_low, y_high),
+                    f"Oil temperature, {units.unit_label(_T, system)}",
+                    f"Water, {units.unit_label(_PPM, system)} (log scale)", chart.short),
         chart.polyline([ax.point(t, line.saturation(t)) for t in temps], "saturation-line",
                        "#12357a", 4.0),
         chart.polyline([ax.point(t, TARGET_FRACTION * line.saturation(t)) for t in temps],
@@ -430,12 +435,12 @@ def saturation_chart(line: SaturationLine, content: float, temp_c: float, temp_c
     if content > 0.0:
         label_y = ax.y(content) + 20 if ax.y(content) - 8 < top + chart.TEXT_SIZE else ax.y(content) - 8
         body += [chart.hline(ax, content, "content-line", "#8b1a1a", 2.5, "12 5"),
-                 chart.text(left + width - 4, label_y, f"water {chart.short(content)} ppm",
+                 chart.text(left + width - 4, label_y, f"water {show(content, _PPM)}",
                             "point-label", anchor="end", weight="bold"),
                  chart.marker(*ax.point(temp_c, content), "reading-point"),
                  chart.marker(*ax.point(temp_cold_c, content), "cold-point", radius=5.0)]
-    title = (f"Saturation against temperature: {chart.short(content)} ppm of water, "
-             f"{chart.short(line.saturation(temp_c))} ppm held at {temp_c:.0f} °C")
+    title = (f"Saturation against temperature: {show(content, _PPM)} of water, "
+             f"{show(line.saturation(temp_c), _PPM)} held at {show(temp_c, _T)}")
     desc = ("The oil's saturation line (solid), half of it as the usual limit (short dashes), "
             "and the water content (long dashes) with rings at the reading's and the coldest "
             "temperature. Where the content line is above the solid line, free water drops out.")

@@ -150,7 +150,12 @@ def test_watch_level_must_be_above_limit():
     assert err.value.field == "watch_pct"
 
 
-def test_life_chart_is_drawn():
-    svg = _life().charts["life"]
-    assert svg.startswith("<svg") and "<title>" in svg and "style=" not in svg
-    assert svg.count("<polyline") >= 2
+def test_life_chart_is_drawn_in_either_unit_system():
+    draw = _life().charts["life"]
+    for system in ("metric", "us"):
+        svg = draw(system)
+        assert svg.startswith("<svg") and "<title>" in svg and "style=" not in svg
+        assert svg.count("<polyline") >= 2
+    # 70 degC = 158 degF (NIST SP 811, B.9); life stays in hours.
+    assert "5000 h at 158.0 °F" in draw("us") and "°C" not in draw("us")
+    assert "5000 h at 70.0 °C" in draw("metric")

@@ -1,5 +1,6 @@
 """SVG charts: well-formed, accessible, CSP-safe, and showing what they claim."""
 
+import math
 import xml.etree.ElementTree as ET
 
 import pytest
@@ -85,3 +86,77 @@ def test_helpers_refuse_style_and_escape_text():
         chart.element("rect", style="fill:red")
     root = _parse(chart.document(100, 50, "a < b & c", "d", [chart.text(1, 2, "<x>")]))
     assert root[0].text == "a < b & c"
+
+
+# Each tool that draws a chart: (tool id, chart name, axis carrying temperature, the axis's
+# scale in degC). The D341 abscissa is log10 of absolute temperature (ASTM D341), the others
+# are linear in temperature. Defaults must draw a chart, as the registry tests ask of them.
+KELVIN = 273.15  # 0 degC in K, exact (SI definition)
+TEMPERATURE_CHARTS = [
+    ("viscosity-at-temperature", "viscosity", "x", lambda c: math.log10(c + KELVIN)),
+    ("water-in-oil", "saturation", "x", lambda c: c),
+    ("tank-heat", "warmup", "y", lambda c: c),
+    ("oxidation-life", "life", "x", lambda c: c),
+]
+
+
+def _temperature_ticks(root, axis):
+    """(label value, coordinate) of the ticks on the axis that carries temperature."""
+    anchor = "middle" if axis == "x" else "end"
+    return [(float(el.text), float(el.get(axis)))
+            for el in root.iter(SVG + "text")
+            if "tick" in el.get("class", "").split() and el.get("text-anchor") == anchor]
+
+
+def _labels(root):
+    return " ".join(el.text or "" for el in root.iter() if el.tag in (
+        SVG + "text", SVG + "title", SVG + "desc"))
+
+
+@pytest.mark.parametrize("tool_id, name, axis, scale", TEMPERATURE_CHARTS)
+def test_chart_follows_the_unit_system(tool_id, name, axis, scale):
+    from calc import registry
+    result = registry.get(tool_id).run({}, "metric")
+    draw = result.charts[name]
+    assert callable(draw)
+    metric, us = _parse(draw("metric")), _parse(draw("us"))
+    for root in (metric, us):
+        _assert_csp_safe(root)
+        assert root.get("role") == "img" and root[0].tag == SVG + "title"
+    assert "°C" in _labels(metric) and "°F" not in _labels(metric)
+    assert "°F" in _labels(us) and "°C" not in _labels(us)
+    # Only the labels change: every drawn line is the same in both systems.
+    lines = lambda root: [el.get("points") for el in root.iter(SVG + "polyline")  # noqa: E731
+                          if "grid" not in el.get("class", "")]
+    assert lines(metric) == lines(us)
+    # The metric ticks give the axis mapping, coordinate = p + q * scale(degC); a degF tick
+    # must sit where its degC equivalent does, (F - 32) * 5/9 (NIST SP 811, B.9).
+    (c0, x0), (c1, x1) = _temperature_ticks(metric, axis)[0], _temperature_ticks(metric, axis)[-1]
+    q = (x1 - x0) / (scale(c1) - scale(c0))
+    us_ticks = _temperature_ticks(us, axis)
+    assert len(us_ticks) >= 3
+    for f, x in us_ticks:
+        assert f % 5 == 0  # round in degF
+        assert x == pytest.approx(x0 + q * (scale((f - 32.0) * 5.0 / 9.0) - scale(c0)), abs=0.2)
+    # The bridge draws the reader's system.
+    answer = bridge.run(tool_id, {}, "us")
+    assert answer["charts"][name] == draw("us")
+    assert bridge.run(tool_id, {}, "metric")["charts"][name] == draw("metric")
+
+
+def test_us_viscosity_chart_says_fahrenheit_and_keeps_centistokes():
+    # 60 degC = 140 degF (NIST SP 811, B.9); viscosity stays in cSt in both systems (calc.units).
+    root = _parse(bridge.run("viscosity-at-temperature", {"temp": 140}, "us")["charts"]["viscosity"])
+    point = next(el for el in root.iter(SVG + "text") if el.get("class") == "point-label")
+    assert point.text == "140.0 °F: 20.6 cSt"
+    axis_labels = [el.text for el in root.iter(SVG + "text") if el.get("class") == "axis-label"]
+    assert axis_labels == ["Oil temperature, °F", "Viscosity, cSt (ASTM D341 scale)"]
+
+
+def test_cli_writes_the_us_chart(tmp_path, capsys):
+    from calc.__main__ import main
+    out = tmp_path / "x.svg"
+    assert main(["run", "viscosity-at-temperature", "--units", "us", "--svg", str(out)]) == 0
+    capsys.readouterr()
+    root = _parse(out.read_text(encoding="utf-8"))
+    assert "°F" in _labels(root) and "°C" not in _labels(root)

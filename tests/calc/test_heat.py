@@ -140,7 +140,8 @@ def test_bad_inputs_name_the_field(changes, field):
 def test_warmup_chart_is_a_safe_svg_of_a_rising_curve():
     import xml.etree.ElementTree as ET
     svg = "{http://www.w3.org/2000/svg}"
-    root = ET.fromstring(run().charts["warmup"])
+    draw = run().charts["warmup"]
+    root = ET.fromstring(draw("metric"))
     assert root.tag == svg + "svg" and root.get("role") == "img" and root[0].tag == svg + "title"
     assert all("style" not in el.attrib and el.tag != svg + "script" for el in root.iter())
     classes = [c for el in root.iter() for c in el.get("class", "").split()]
@@ -149,3 +150,12 @@ def test_warmup_chart_is_a_safe_svg_of_a_rising_curve():
     line = next(el for el in root.iter(svg + "polyline") if "oil-line" in el.get("class"))
     ys = [float(p.split(",")[1]) for p in line.get("points").split()]
     assert all(b <= a for a, b in zip(ys, ys[1:]))  # warming: the curve climbs (SVG y falls)
+    # In US units the same curve is labelled in degF: the 60 degC skin-burn line is 140 degF
+    # (NIST SP 811, B.9).
+    us = ET.fromstring(draw("us"))
+    assert all("style" not in el.attrib for el in us.iter())
+    texts = [el.text for el in us.iter(svg + "text")]
+    assert "140.0 °F burns skin" in texts and "Oil temperature, °F" in texts
+    assert not any("°C" in t for t in texts)
+    us_line = next(el for el in us.iter(svg + "polyline") if "oil-line" in el.get("class"))
+    assert us_line.get("points") == line.get("points")

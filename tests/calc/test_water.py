@@ -195,6 +195,10 @@ def test_coldest_temperature_is_never_above_the_reading():
 def test_chart_is_a_self_describing_svg():
     # The page shows the SVG as it is: it carries its own title and description, no style.
     for result in (_run(), _run(reading="ppm", ppm=0.0), _run(reading="ppm", ppm=90000.0)):
-        svg = result.charts["saturation"]
-        assert svg.startswith("<svg") and "<title>" in svg and "<desc>" in svg
-        assert "style=" not in svg and "nan" not in svg.lower() and "inf" not in svg.lower()
+        for system in ("metric", "us"):
+            svg = result.charts["saturation"](system)
+            assert svg.startswith("<svg") and "<title>" in svg and "<desc>" in svg
+            assert "style=" not in svg and "nan" not in svg.lower() and "inf" not in svg.lower()
+    # 50 degC = 122 degF (NIST SP 811, B.9); water stays in ppm.
+    us = bridge.run("water-in-oil", {}, "us")["charts"]["saturation"]
+    assert "held at 122.0 °F" in us and "Oil temperature, °F" in us and "°C" not in us
