@@ -122,9 +122,27 @@ function fillList(list, items, fill) {
   list.replaceChildren(...items.map((item) => { const li = document.createElement("li"); fill(li, item); return li; }));
 }
 
+// What was typed is kept on the device, so a reload, a killed tab or a new build loses nothing.
+const formKey = (form) => "sumpside.form." + form.dataset.tool;
+
+function keepForm(form) {
+  store.set(formKey(form), { units, inputs: readInputs(form) });
+}
+
+function restoreForm(form) {
+  const kept = store.get(formKey(form), null);
+  if (!kept || kept.units !== units) return;
+  for (const [name, value] of Object.entries(kept.inputs || {})) {
+    const el = form.querySelector(`[name="${CSS.escape(name)}"]`);
+    if (!el) continue;
+    if (el.type === "checkbox") el.checked = value === "yes";
+    else if (el.tagName !== "SELECT" || [...el.options].some((o) => o.value === value)) el.value = value;
+  }
+}
+
 function bindForm(form) {
   let timer = null;
-  const soon = () => { clearTimeout(timer); timer = setTimeout(() => compute(form), DEBOUNCE_MS); };
+  const soon = () => { clearTimeout(timer); keepForm(form); timer = setTimeout(() => compute(form), DEBOUNCE_MS); };
   form.addEventListener("input", soon);
   form.addEventListener("change", soon);
   form.addEventListener("submit", (event) => { event.preventDefault(); clearTimeout(timer); compute(form); });
@@ -136,6 +154,7 @@ function bindForm(form) {
     for (const el of form.querySelectorAll("select[name]")) {
       el.value = [...el.options].find((o) => o.defaultSelected)?.value ?? el.value;
     }
+    keepForm(form);
     compute(form);
   });
   form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveToLog(form));
@@ -174,6 +193,7 @@ async function switchUnits(next) {
         if (el && typeof value === "string") el.value = value;
       }
     }
+    keepForm(form);
   }));
   computeVisible();
 }
@@ -417,6 +437,7 @@ if (units !== "metric") {
   // Forms are rendered in metric: put the US defaults in before anything is computed.
   for (const el of document.querySelectorAll("input[name]:not([type=checkbox])")) el.value = el.dataset.defaultUs ?? el.value;
 }
+for (const form of document.querySelectorAll("form[data-tool]")) restoreForm(form);
 showUnitLabels();
 route();
 registerServiceWorker().catch((err) => console.warn("offline cache unavailable:", err));

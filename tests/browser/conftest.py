@@ -101,6 +101,9 @@ def page(context):
 
 
 def open_app(page, base: str, route: str = "") -> None:
+    """A full load of the app at `route` (never a mere hash change), then wait for Python."""
+    if page.url.startswith(base):
+        page.goto("about:blank")  # else a hash-only change would not reload the page
     page.goto(base + route)
     page.wait_for_selector("html[data-ready]", timeout=BOOT_TIMEOUT_MS)
 

@@ -34,6 +34,21 @@ def test_log_survives_reload_and_exports(page, base_url, watch):
     assert not watch.errors
 
 
+def test_typed_values_survive_a_reload(page, base_url, watch):
+    open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    form = page.locator('form[data-tool="viscosity-at-temperature"]')
+    form.locator('[name="kv40"]').fill("68")
+    form.locator('[name="pump"]').select_option("gear")
+    page.wait_for_timeout(400)  # past the debounce
+    page.reload()
+    page.wait_for_selector("html[data-ready]")
+    assert form.locator('[name="kv40"]').input_value() == "68"
+    assert form.locator('[name="pump"]').input_value() == "gear"
+    form.locator('[data-action="reset"]').click()
+    assert form.locator('[name="kv40"]').input_value() == "46"
+    assert not watch.errors
+
+
 def test_two_saved_readings_draw_a_trend(page, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
     _save_one(page)
