@@ -62,8 +62,7 @@ def present(found: registry.Tool, result: Result, system: str) -> dict:
                      for v in result.verdicts],
         "notes": [n.render(show) for n in result.notes],
         "sources": list(result.sources),
-        "charts": {name: draw(system) if callable(draw) else draw
-                   for name, draw in result.charts.items()},
+        "charts": {name: draw(system) for name, draw in result.charts.items()},
         "ranked": [{"key": c.key, "title": c.title, "score": c.score,
                     "reasons": [r.render(show) for r in c.reasons]} for c in result.ranked],
     }

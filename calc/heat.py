@@ -308,6 +308,9 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
                 * STEEL_DENSITY_KG_PER_M3)
     capacity = heat_capacity_kj_per_k(oil, steel_kg)
     area = sum(a for a, _, _ in faces)
+    if area < 1e-6:
+        raise InputError("level", "almost no tank surface is wetted at this level: enter the "
+                                  "working level, or count all walls")
     shed_target = loss(target)
     h_rad = radiation_coefficient(emissivity, target, ambient)
     h_conv = 1000.0 * shed_target / (area * (target - ambient)) - h_rad

@@ -37,5 +37,7 @@ def test_level_from_volume_holds_that_volume(shape, length, width, height, diame
 def test_lower_level_never_lengthens_the_dwell(tank_l, flow, level, air_release, low_share):
     v = tank_sizing(tank_l, flow, "industrial", level, air_release, "yes",
                     low_level=max(1.0, level * low_share)).values
-    assert v["low_dwell"] <= v["dwell"] <= v["flow_minutes"]
+    # Equal levels may differ in the last bit: compare with a relative allowance.
+    assert v["low_dwell"] <= v["dwell"] * (1 + 1e-12)
+    assert v["dwell"] <= v["flow_minutes"] * (1 + 1e-12)
     assert v["tank_needed"] >= flow * 3.0 * (1 - 1e-12)  # never below the common-practice floor
