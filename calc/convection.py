@@ -26,7 +26,6 @@ Jacobsen air formulation in `chemicals`).
 
 from __future__ import annotations
 
-import math
 
 KELVIN = 273.15
 GRAVITY = 9.80665  # m/s^2, standard gravity (CGPM 1901)

@@ -21,7 +21,6 @@ if str(ROOT) not in sys.path:
 from calc import registry, units  # noqa: E402
 
 CHECKLIST_PREFIX = "checklist-"
-TROUBLESHOOTING = "Troubleshooting"
 
 
 def render_markdown(text: str) -> str:

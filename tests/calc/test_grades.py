@@ -23,7 +23,7 @@ def test_every_grade_is_mid_point_plus_minus_ten_percent():
     # ISO 3448: the limits are the mid-point -10 % and +10 %; 20 grades from VG 2 to VG 3200.
     assert len(ISO_VG_GRADES) == 20
     assert ISO_VG_GRADES[0][0] == "VG 2" and ISO_VG_GRADES[-1][0] == "VG 3200"
-    for name, mid, low, high in ISO_VG_GRADES:
+    for _name, mid, low, high in ISO_VG_GRADES:
         assert low == pytest.approx(0.9 * mid, rel=1e-12) and high == pytest.approx(1.1 * mid)
     mids = [g[1] for g in ISO_VG_GRADES]
     assert mids == sorted(mids)
