@@ -61,7 +61,14 @@ def _print_answer(answer: dict, tool_outputs: dict) -> None:
 
 
 def main(argv: list[str] | None = None) -> int:
-    args = _parser().parse_args(argv)
+    parser = _parser()
+    # Options may come between key=value pairs: argparse leaves the later pairs over.
+    args, extra = parser.parse_known_args(argv)
+    stray = [x for x in extra if x.startswith("-") or "=" not in x or args.command != "run"]
+    if stray:
+        parser.error(f"unrecognized arguments: {' '.join(stray)}")
+    if extra:
+        args.pairs = args.pairs + extra
     if args.command == "tools":
         if args.json:
             print(json.dumps(bridge.catalogue(args.units), indent=2, ensure_ascii=False))
