@@ -172,3 +172,18 @@ def test_no_answer_blocks_the_page(page, base_url):
         'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent === %r""" % (
         bridge.run("viscosity-at-temperature", {"temp": "45"})["text"]["kv"],))
     assert page.evaluate("() => 1 + 1") == 2
+
+
+def test_a_tool_prints_with_machine_date_and_verdict(page, base_url, watch):
+    pypdf = pytest.importorskip("pypdf")
+    import io
+    open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    page.fill("#job-machine", "Container handler 12, quay 3")
+    kv = wait_answer(page, "viscosity-at-temperature", "kv")
+    page.emulate_media(media="print")
+    reader = pypdf.PdfReader(io.BytesIO(page.pdf(format="A4")))
+    text = " ".join(" ".join(p.extract_text() for p in reader.pages).split())
+    assert len(reader.pages) <= 2
+    assert "Container handler 12, quay 3" in text and kv in text
+    assert "Compute" not in text  # no buttons on paper
+    assert not watch.errors
