@@ -59,7 +59,12 @@ WebAssembly.instantiateStreaming = async (source, imports) => {
   const response = await source;
   if (response && response.url === wasmURL) {
     const module = await wasmModule.catch(() => null);
-    if (module) return { instance: await WebAssembly.instantiate(module, imports), module };
+    if (module) {
+      // Pyodide's own download of the same file is not needed: stop it (a first visit
+      // would otherwise fetch the 9.6 MB twice, besides the service worker's copy).
+      response.body?.cancel().catch(() => {});
+      return { instance: await WebAssembly.instantiate(module, imports), module };
+    }
   }
   return instantiateStreaming(response, imports);
 };
