@@ -44,9 +44,6 @@ function hex(buffer) {
   return Array.from(new Uint8Array(buffer), (b) => b.toString(16).padStart(2, "0")).join("");
 }
 
-// Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
-// starts at once too, with promises of the lock file and the snapshot: reading the snapshot
-// from the cache then overlaps with Pyodide loading its own script.
 // Pyodide compiles its wasm only once its script has loaded and the snapshot is in hand;
 // compiling it here from the start runs that beside both. Pyodide's own instantiation then
 // gets this compiled module (a new instance of it, for the fallback boot too); any other
@@ -68,12 +65,16 @@ WebAssembly.instantiateStreaming = async (source, imports) => {
   }
   return instantiateStreaming(response, imports);
 };
+
+// Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
+// starts at once too, with promises of the lock file and the snapshot: reading the snapshot
+// from the cache then overlaps with Pyodide loading its own script.
 const lockRequest = fetchJSON("pyodide-lock.json");
 const metaRequest = fetchJSON("snapshot.json").catch((err) => {
   throw new Error("no snapshot in this build (" + err.message + ")");
 });
 metaRequest.catch(() => {});
-const storedSnapshot = fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
+let storedSnapshot = fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
   if (!response.ok) throw new Error(`${SNAPSHOT_FILE}: HTTP ${response.status}`);
   return new Uint8Array(await response.arrayBuffer());
 });
@@ -183,7 +184,7 @@ async function boot() {
   status("starting", "Starting calculator…");
   let note = "";
   try {
-    await bootSnapshot();
+    await bootSnapshot().finally(() => { storedSnapshot = null; }); // let the 15 MB go
     postMessage({ type: "ready", ms: Math.round(performance.now()), mode: "snapshot" });
     return;
   } catch (err) {
