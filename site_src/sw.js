@@ -9,8 +9,9 @@ const CACHE = "sumpside-" + BUILD;
 self.addEventListener("install", (event) => {
   event.waitUntil((async () => {
     const cache = await caches.open(CACHE);
-    // cache: "reload" skips the HTTP cache, so a new build never mixes in old files.
-    await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "reload" })));
+    // cache: "no-cache" revalidates every file with the server, so a new build never mixes in
+    // old files, while a file the page has just loaded comes back as a small 304.
+    await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "no-cache" })));
   })());
 });
 

@@ -46,8 +46,15 @@ class Handler(http.server.SimpleHTTPRequestHandler):
         # A twin older than its file is stale (the file was edited after the build): skip it.
         if (path.is_file() and gz.is_file() and gz.stat().st_mtime >= path.stat().st_mtime
                 and "gzip" in self.headers.get("Accept-Encoding", "")):
+            modified = self.date_time_string(int(gz.stat().st_mtime))
+            if self.headers.get("If-Modified-Since") == modified:
+                self.send_response(304)  # what the client holds is current
+                self.send_header("Vary", "Accept-Encoding")
+                self.end_headers()
+                return None
             handle = open(gz, "rb")
             self.send_response(200)
+            self.send_header("Last-Modified", modified)
             self.send_header("Content-Type", self.guess_type(str(path)))
             self.send_header("Content-Encoding", "gzip")
             self.send_header("Content-Length", str(gz.stat().st_size))

@@ -440,5 +440,12 @@ if (units !== "metric") {
 for (const form of document.querySelectorAll("form[data-tool]")) restoreForm(form);
 showUnitLabels();
 route();
-registerServiceWorker().catch((err) => console.warn("offline cache unavailable:", err));
+// The offline cache is filled once the calculator has booted (its files are then in the HTTP
+// cache and revalidate cheaply), or after a while if it never does.
+let registering = null;
+const registerOnce = () => {
+  registering ??= registerServiceWorker().catch((err) => console.warn("offline cache unavailable:", err));
+};
+calculator.ready.then(registerOnce);
+setTimeout(registerOnce, 20000);
 root.dataset.shell = "ready";

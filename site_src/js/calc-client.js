@@ -2,7 +2,8 @@
 // The worker boots Pyodide; nothing here waits for it except the answers themselves.
 
 export function startCalculator(onStatus) {
-  const worker = new Worker(new URL("../worker.js", import.meta.url), { type: "module" });
+  const early = window.sumpsideWorker; // started by js/boot.js, if it could
+  const worker = early ? early.worker : new Worker(new URL("../worker.js", import.meta.url), { type: "module" });
   const pending = new Map();
   let nextId = 1;
   let readyResolve;
@@ -20,6 +21,10 @@ export function startCalculator(onStatus) {
   worker.onerror = (event) => {
     onStatus({ state: "failed", text: "Calculator failed to start: " + (event.message || "worker error") });
   };
+  // Both handlers are in place in this same task, so no message falls between the two.
+  for (const event of early ? early.takeEarly() : []) {
+    (event.type === "error" ? worker.onerror : worker.onmessage)(event);
+  }
 
   function ask(op, request) {
     const id = nextId++;
