@@ -64,7 +64,7 @@ def main(argv: list[str] | None = None) -> int:
     parser = _parser()
     # Options may come between key=value pairs: argparse leaves the later pairs over.
     args, extra = parser.parse_known_args(argv)
-    stray = [x for x in extra if x.startswith("-") or "=" not in x or args.command != "run"]
+    stray = [x for x in extra if x.startswith("-") or args.command != "run"]
     if stray:
         parser.error(f"unrecognized arguments: {' '.join(stray)}")
     if extra:

@@ -36,10 +36,13 @@ def test_options_may_come_between_pairs(capsys):
     assert code == 0 and answer["units"]["t_min"] == "°F" and answer["text"]["kv"] == "20.6 cSt"
 
 
-def test_a_pair_without_equals_is_an_error(capsys):
-    with pytest.raises(SystemExit) as stop:
-        main(["run", "viscosity-at-temperature", "--units", "us", "temp"])
-    assert stop.value.code == 2
+@pytest.mark.parametrize("argv", [
+    ["run", "viscosity-at-temperature", "temp"],
+    ["run", "viscosity-at-temperature", "--units", "us", "temp"],  # after an option too
+])
+def test_a_pair_without_equals_is_an_error(capsys, argv):
+    code, _, err = _run(capsys, *argv)
+    assert code == 2 and "key=value" in err
 
 
 def test_catalogue_lists_every_tool_with_its_inputs(capsys):
