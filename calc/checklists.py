@@ -22,6 +22,8 @@ not a diagnosis: they say where to start.
 
 from __future__ import annotations
 
+from typing import NamedTuple
+
 from .errors import InputError
 from .registry import Field, Output
 from .result import COMMON_PRACTICE, Cause, Q, Result, Text, text
@@ -48,6 +50,27 @@ def flag(key: str, label: str, help_text: str = "") -> Field:
     return Field(key, label, "flag", False, help=help_text)
 
 
+class Symptom(NamedTuple):
+    """One tick box of a checklist and the points it gives when ticked.
+
+    `gives` holds (cause key or keys, points, reason) in the order they are added.
+    """
+
+    key: str
+    label: str
+    gives: tuple[tuple[str | tuple[str, ...], float, str], ...]
+    help: str = ""
+
+
+def symptom_fields(symptoms: tuple[Symptom, ...]) -> tuple[Field, ...]:
+    """The tick boxes of `symptoms`, in their order.
+
+    >>> [f.key for f in symptom_fields((Symptom("noise", "Pump noisy", ()),))]
+    ['noise']
+    """
+    return tuple(flag(s.key, s.label, s.help) for s in symptoms)
+
+
 class Scoreboard:
     """Points and reasons per cause of one checklist, in the checklist's order."""
 
@@ -66,6 +89,26 @@ class Scoreboard:
     def add_each(self, keys: tuple[str, ...], points: float, template: str, *args: Q) -> None:
         for key in keys:
             self.add(key, points, template, *args)
+
+    def tick(self, symptoms: tuple[Symptom, ...], ticked: dict) -> int:
+        """Add what every ticked symptom gives, in table order; return how many are ticked.
+
+        >>> board = Scoreboard((("a", "First cause"), ("b", "Second cause")))
+        >>> noise = Symptom("noise", "Pump noisy", ((("a", "b"), WEAK, "noise at the pump"),))
+        >>> board.tick((noise,), {"noise": True}), board.points
+        (1, {'a': 1.0, 'b': 1.0})
+        """
+        unknown = set(ticked) - {s.key for s in symptoms}
+        if unknown:
+            raise TypeError(f"no symptom {min(unknown)!r} in this checklist")
+        count = 0
+        for symptom in symptoms:
+            if not ticked.get(symptom.key):
+                continue
+            count += 1
+            for causes, points, reason in symptom.gives:
+                self.add_each((causes,) if isinstance(causes, str) else causes, points, reason)
+        return count
 
     def weigh(self, key: str, beyond: bool, points: float, beyond_reason: str,
               within_reason: str, *args: Q) -> None:

@@ -8,8 +8,9 @@ The oil's readings are judged by calc.foam against the limits of its grade.
 from __future__ import annotations
 
 from . import foam, tank
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         both_or_neither, count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom,
+                         checklist_result, both_or_neither, count_entered, symptom_fields,
+                         RANKING_OUTPUTS)
 from .registry import Field, Output, tool
 from .result import Q
 
@@ -24,6 +25,40 @@ CAUSES = (
     ("antifoam-lost", "Antifoam used up or filtered out"),
 )
 MECHANICAL = ("suction-leak", "return-line", "tank-dwell")
+
+_FINE_AIR = "cloudy oil that clears from the bottom: fine air"
+_RATTLE = "pump rattles: air or vapour at the inlet"
+_TOPUP = "started after a top-up or oil change"
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("foam_on_surface", "Foam on the oil in the tank",
+            ((("suction-leak", "return-line", "tank-dwell", "contaminated-oil", "antifoam-lost"),
+              WEAK, "foam on the oil in the tank"),)),
+    Symptom("milky_clears", "Oil cloudy, clears from the bottom up when left standing",
+            (("suction-leak", MODERATE, _FINE_AIR),
+             (("tank-dwell", "antifoam-overdose"), WEAK, _FINE_AIR)),
+            "Fine air bubbles rise and clear from the bottom; water clears from the top or "
+            "not at all."),
+    Symptom("pump_noise", "Pump noisy (rattle, like gravel)",
+            (("suction-leak", MODERATE, _RATTLE), ("tank-dwell", WEAK, _RATTLE))),
+    Symptom("spongy", "Actuators spongy or jerky",
+            ((("suction-leak", "antifoam-overdose", "tank-dwell"), WEAK,
+              "spongy actuators: air carried into the circuit"),)),
+    Symptom("worse_cold", "Worse with cold oil",
+            (("suction-leak", WEAK, "worse when cold: the inlet vacuum is deepest with thick oil"),
+             ("antifoam-overdose", WEAK, "worse when cold: air leaves thick oil slowly"))),
+    Symptom("after_suction_work", "Started after work on the pump or suction line",
+            (("suction-leak", STRONG, "started after work on the pump or suction line"),)),
+    Symptom("return_splashing", "Return flow splashes or is visible at the surface",
+            (("return-line", STRONG, "return flow splashes at the surface"),)),
+    Symptom("level_low", "Oil level low in the sight glass",
+            (("tank-dwell", STRONG,
+              "low oil level: less time in the tank and a vortex at the suction"),
+             ("suction-leak", WEAK, "low oil level can uncover the suction"))),
+    Symptom("after_topup", "Started after a top-up or oil change",
+            (("wrong-topup", STRONG, _TOPUP), ("contaminated-oil", WEAK, _TOPUP))),
+)
 
 # Common practice (calc.tank): an industrial tank holds 3 to 5 minutes of pump flow.
 MIN_DWELL_MIN = tank.FLOW_MINUTES["industrial"][0]
@@ -92,17 +127,7 @@ def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flo
             "are ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("foam_on_surface", "Foam on the oil in the tank"),
-        flag("milky_clears", "Oil cloudy, clears from the bottom up when left standing",
-              "Fine air bubbles rise and clear from the bottom; water clears from the top or "
-              "not at all."),
-        flag("pump_noise", "Pump noisy (rattle, like gravel)"),
-        flag("spongy", "Actuators spongy or jerky"),
-        flag("worse_cold", "Worse with cold oil"),
-        flag("after_suction_work", "Started after work on the pump or suction line"),
-        flag("return_splashing", "Return flow splashes or is visible at the surface"),
-        flag("level_low", "Oil level low in the sight glass"),
-        flag("after_topup", "Started after a top-up or oil change"),
+        *symptom_fields(SYMPTOMS),
         Field("grade", "Oil grade", "choice", "VG 46", choices=foam.GRADE_CHOICES),
         Field("air_release", "Air-release time at 50 °C (lab)", "minutes", None, min=0.0,
               max=120.0, optional=True),
@@ -119,47 +144,16 @@ def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flo
         Output("dwell_time", "Oil's time in the tank", "minutes"),
     ),
 )
-def checklist_aeration(foam_on_surface=False, milky_clears=False, pump_noise=False, spongy=False,
-                       worse_cold=False, after_suction_work=False, return_splashing=False,
-                       level_low=False, after_topup=False, grade="VG 46", air_release=None,
-                       seq1_tendency=None, seq1_stability=None, oil_volume=None, pump_flow=None):
-    """Rank the causes of air in the oil from symptoms and readings."""
+def checklist_aeration(grade="VG 46", air_release=None, seq1_tendency=None, seq1_stability=None,
+                       oil_volume=None, pump_flow=None, **symptoms):
+    """Rank the causes of air in the oil from the ticked SYMPTOMS and readings."""
     both_or_neither("enter both the oil volume and the pump flow for the dwell time, or neither",
                     oil_volume=oil_volume, pump_flow=pump_flow)
     board = Scoreboard(CAUSES)
-    if foam_on_surface:
-        board.add_each(("suction-leak", "return-line", "tank-dwell", "contaminated-oil",
-                        "antifoam-lost"), WEAK, "foam on the oil in the tank")
-    if milky_clears:
-        board.add("suction-leak", MODERATE, "cloudy oil that clears from the bottom: fine air")
-        board.add_each(("tank-dwell", "antifoam-overdose"), WEAK,
-                       "cloudy oil that clears from the bottom: fine air")
-    if pump_noise:
-        board.add("suction-leak", MODERATE, "pump rattles: air or vapour at the inlet")
-        board.add("tank-dwell", WEAK, "pump rattles: air or vapour at the inlet")
-    if spongy:
-        board.add_each(("suction-leak", "antifoam-overdose", "tank-dwell"), WEAK,
-                       "spongy actuators: air carried into the circuit")
-    if worse_cold:
-        board.add("suction-leak", WEAK,
-                  "worse when cold: the inlet vacuum is deepest with thick oil")
-        board.add("antifoam-overdose", WEAK, "worse when cold: air leaves thick oil slowly")
-    if after_suction_work:
-        board.add("suction-leak", STRONG, "started after work on the pump or suction line")
-    if return_splashing:
-        board.add("return-line", STRONG, "return flow splashes at the surface")
-    if level_low:
-        board.add("tank-dwell", STRONG, "low oil level: less time in the tank and a vortex at "
-                                        "the suction")
-        board.add("suction-leak", WEAK, "low oil level can uncover the suction")
-    if after_topup:
-        board.add("wrong-topup", STRONG, "started after a top-up or oil change")
-        board.add("contaminated-oil", WEAK, "started after a top-up or oil change")
+    ticked = board.tick(SYMPTOMS, symptoms)
     _score_oil(board, grade, air_release, seq1_tendency, seq1_stability)
     _score_tank(board, grade, air_release, oil_volume, pump_flow)
-    entered = count_entered(foam_on_surface, milky_clears, pump_noise, spongy, worse_cold,
-                            after_suction_work, return_splashing, level_low, after_topup,
-                            air_release, seq1_tendency, seq1_stability, oil_volume)
+    entered = ticked + count_entered(air_release, seq1_tendency, seq1_stability, oil_volume)
     result = checklist_result(board, entered, CAUTION)
     result.values["dwell_time"] = (None if oil_volume is None
                                    else tank.dwell_minutes(oil_volume, pump_flow))

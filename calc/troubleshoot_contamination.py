@@ -9,8 +9,8 @@ the code.
 from __future__ import annotations
 
 from . import cleanliness
-from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom, checklist_result,
+                         count_entered, symptom_fields, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
 from .result import COMMON_PRACTICE, Q
 
@@ -20,6 +20,31 @@ CAUSES = (
     ("dirty-topup", "Unfiltered new oil or dirty top-up gear"),
     ("repair-dirt", "Dirt left in after a repair"),
     ("wear-debris", "Wear inside the pump, valves or cylinders"),
+)
+
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("filter_indicator", "Filter indicator shows blocked or bypass",
+            (("filter-bypass", STRONG, "filter indicator shows blocked or bypass"),)),
+    Symptom("breather_open", "Breather missing, open or without a fine filter",
+            (("breather-ingress", STRONG, "breather open or without a fine filter"),)),
+    Symptom("dusty_site", "Dusty site, or rods exposed to dirt",
+            (("breather-ingress", MODERATE, "dusty site or exposed rods"),)),
+    Symptom("rods_scored", "Cylinder rods scored, wipers worn",
+            (("breather-ingress", MODERATE, "scored rods and worn wipers let dirt in"),
+             ("wear-debris", WEAK, "scored rods: something hard is in the oil"))),
+    Symptom("after_topup", "Started after a top-up or oil change",
+            (("dirty-topup", STRONG, "started after a top-up or oil change"),)),
+    Symptom("after_repair", "Started after a repair or a new hose or part",
+            (("repair-dirt", STRONG, "started after a repair or a new part"),)),
+    Symptom("valves_sticking", "Valves stick or act erratically",
+            ((("filter-bypass", "repair-dirt", "wear-debris"), WEAK,
+              "sticking valves: fine dirt silting the spools"),)),
+    Symptom("metal_seen", "Shiny metal on the filter element or a magnet",
+            (("wear-debris", STRONG, "shiny metal on the filter or magnet"),)),
+    Symptom("pump_louder", "Pump louder or slower than it used to be",
+            (("wear-debris", MODERATE, "pump louder or slower: wear"),)),
 )
 
 CAUTION = ("Stop, lock out and relieve pressure (accumulators, raised loads) before changing a "
@@ -49,15 +74,7 @@ def _code(code_4, code_6, code_14):
             "ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("filter_indicator", "Filter indicator shows blocked or bypass"),
-        flag("breather_open", "Breather missing, open or without a fine filter"),
-        flag("dusty_site", "Dusty site, or rods exposed to dirt"),
-        flag("rods_scored", "Cylinder rods scored, wipers worn"),
-        flag("after_topup", "Started after a top-up or oil change"),
-        flag("after_repair", "Started after a repair or a new hose or part"),
-        flag("valves_sticking", "Valves stick or act erratically"),
-        flag("metal_seen", "Shiny metal on the filter element or a magnet"),
-        flag("pump_louder", "Pump louder or slower than it used to be"),
+        *symptom_fields(SYMPTOMS),
         Field("component", "Most dirt-sensitive component", "choice", "piston",
               choices=cleanliness.COMPONENT_CHOICES),
         Field("pressure", "Working pressure", "pressure", None, min=0.0, max=1000.0,
@@ -73,35 +90,13 @@ def _code(code_4, code_6, code_14):
                "Each step doubles the particle count."),
     ),
 )
-def checklist_contamination(filter_indicator=False, breather_open=False, dusty_site=False,
-                            rods_scored=False, after_topup=False, after_repair=False,
-                            valves_sticking=False, metal_seen=False, pump_louder=False,
-                            component="piston", pressure=None, code_4=None, code_6=None,
-                            code_14=None):
-    """Rank the ways dirt gets into the oil from symptoms and the cleanliness code."""
+def checklist_contamination(component="piston", pressure=None, code_4=None, code_6=None,
+                            code_14=None, **symptoms):
+    """Rank the ways dirt gets into the oil from the ticked SYMPTOMS and the cleanliness code."""
     code = _code(code_4, code_6, code_14)
     target = cleanliness.target_code(component, 0.0 if pressure is None else pressure)
     board = Scoreboard(CAUSES)
-    if filter_indicator:
-        board.add("filter-bypass", STRONG, "filter indicator shows blocked or bypass")
-    if breather_open:
-        board.add("breather-ingress", STRONG, "breather open or without a fine filter")
-    if dusty_site:
-        board.add("breather-ingress", MODERATE, "dusty site or exposed rods")
-    if rods_scored:
-        board.add("breather-ingress", MODERATE, "scored rods and worn wipers let dirt in")
-        board.add("wear-debris", WEAK, "scored rods: something hard is in the oil")
-    if after_topup:
-        board.add("dirty-topup", STRONG, "started after a top-up or oil change")
-    if after_repair:
-        board.add("repair-dirt", STRONG, "started after a repair or a new part")
-    if valves_sticking:
-        board.add_each(("filter-bypass", "repair-dirt", "wear-debris"), WEAK,
-                       "sticking valves: fine dirt silting the spools")
-    if metal_seen:
-        board.add("wear-debris", STRONG, "shiny metal on the filter or magnet")
-    if pump_louder:
-        board.add("wear-debris", MODERATE, "pump louder or slower: wear")
+    ticked = board.tick(SYMPTOMS, symptoms)
     over = None
     if code is not None:
         over = cleanliness.worst_excess(code, target)
@@ -115,8 +110,7 @@ def checklist_contamination(filter_indicator=False, breather_open=False, dusty_s
         if over >= 3:
             board.add("filter-bypass", MODERATE, "{0} steps over target: eight times the "
                       "particles or more, the filter is not keeping up", Q(over, "count"))
-    entered = count_entered(filter_indicator, breather_open, dusty_site, rods_scored, after_topup,
-                            after_repair, valves_sticking, metal_seen, pump_louder, code)
+    entered = ticked + count_entered(code)
     result = checklist_result(board, entered, CAUTION)
     result.values["target"] = "/".join(str(t) for t in target)
     result.values["steps_over"] = None if over is None else float(over)

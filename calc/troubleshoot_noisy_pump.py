@@ -9,8 +9,8 @@ speed in the suction line.
 from __future__ import annotations
 
 from . import suction
-from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom, checklist_result,
+                         count_entered, symptom_fields, RANKING_OUTPUTS)
 from .registry import Field, tool
 from .result import Q
 
@@ -20,6 +20,34 @@ CAUSES = (
     ("coupling", "Coupling misaligned or worn, mounting loose"),
     ("valve-chatter", "A relief or pressure valve chattering"),
     ("pump-wear", "Worn or damaged pump"),
+)
+
+_WHINE = "whine rising with speed"
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("worse_cold", "Noisier at cold start, quieter once warm",
+            (("cavitation", MODERATE, "worse cold: thick oil starves the inlet"),)),
+    Symptom("whine", "High whine that rises with speed",
+            (("cavitation", MODERATE, _WHINE), ("pump-wear", WEAK, _WHINE))),
+    Symptom("rattle", "Rattle like gravel",
+            ((("cavitation", "air-in-oil"), MODERATE,
+              "gravel rattle: vapour or air bubbles collapsing"),)),
+    Symptom("foam", "Foam in the tank or cloudy oil",
+            (("air-in-oil", STRONG, "foam or cloudy oil"),)),
+    Symptom("strainer_old", "Suction strainer not cleaned lately, or inlet valve not fully open",
+            (("cavitation", STRONG, "strainer not cleaned or inlet valve not fully open"),)),
+    Symptom("level_low", "Oil level low",
+            ((("cavitation", "air-in-oil"), MODERATE, "low oil level"),)),
+    Symptom("vibration", "Vibration at the coupling or pump mounting",
+            (("coupling", STRONG, "vibration at the coupling or mounting"),)),
+    Symptom("after_pump_work", "Started after the pump or motor was changed or moved",
+            (("coupling", MODERATE, "started after the pump or motor was moved"),
+             ("air-in-oil", WEAK, "started after the pump was changed: an inlet joint"))),
+    Symptom("noise_at_setting", "Noise or squeal comes as the pressure reaches its setting",
+            (("valve-chatter", STRONG, "noise comes at the pressure setting"),)),
+    Symptom("slow_or_hot", "Machine slower, or the pump case hotter, than it used to be",
+            (("pump-wear", STRONG, "slower machine or hotter pump: wear inside"),)),
 )
 
 # Common practice (calc.suction): industrial pumps need at least about 0.8 bar absolute at the
@@ -57,16 +85,7 @@ def _score_readings(board: Scoreboard, inlet, pump_min, velocity) -> list[tuple]
             "ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("worse_cold", "Noisier at cold start, quieter once warm"),
-        flag("whine", "High whine that rises with speed"),
-        flag("rattle", "Rattle like gravel"),
-        flag("foam", "Foam in the tank or cloudy oil"),
-        flag("strainer_old", "Suction strainer not cleaned lately, or inlet valve not fully open"),
-        flag("level_low", "Oil level low"),
-        flag("vibration", "Vibration at the coupling or pump mounting"),
-        flag("after_pump_work", "Started after the pump or motor was changed or moved"),
-        flag("noise_at_setting", "Noise or squeal comes as the pressure reaches its setting"),
-        flag("slow_or_hot", "Machine slower, or the pump case hotter, than it used to be"),
+        *symptom_fields(SYMPTOMS),
         Field("inlet_pressure", "Pump inlet pressure, absolute", "pressure", None, min=0.0,
               max=10.0, optional=True, help="From a vacuum gauge at the inlet, or the "
                                             "suction-check tool."),
@@ -78,39 +97,13 @@ def _score_readings(board: Scoreboard, inlet, pump_min, velocity) -> list[tuple]
     ),
     outputs=RANKING_OUTPUTS,
 )
-def checklist_noisy_pump(worse_cold=False, whine=False, rattle=False, foam=False,
-                         strainer_old=False, level_low=False, vibration=False,
-                         after_pump_work=False, noise_at_setting=False, slow_or_hot=False,
-                         inlet_pressure=None, pump_min_inlet=None, suction_velocity=None):
-    """Rank the causes of pump noise from symptoms and readings."""
+def checklist_noisy_pump(inlet_pressure=None, pump_min_inlet=None, suction_velocity=None,
+                         **symptoms):
+    """Rank the causes of pump noise from the ticked SYMPTOMS and readings."""
     board = Scoreboard(CAUSES)
-    if worse_cold:
-        board.add("cavitation", MODERATE, "worse cold: thick oil starves the inlet")
-    if whine:
-        board.add("cavitation", MODERATE, "whine rising with speed")
-        board.add("pump-wear", WEAK, "whine rising with speed")
-    if rattle:
-        board.add_each(("cavitation", "air-in-oil"), MODERATE, "gravel rattle: vapour or air "
-                                                               "bubbles collapsing")
-    if foam:
-        board.add("air-in-oil", STRONG, "foam or cloudy oil")
-    if strainer_old:
-        board.add("cavitation", STRONG, "strainer not cleaned or inlet valve not fully open")
-    if level_low:
-        board.add_each(("cavitation", "air-in-oil"), MODERATE, "low oil level")
-    if vibration:
-        board.add("coupling", STRONG, "vibration at the coupling or mounting")
-    if after_pump_work:
-        board.add("coupling", MODERATE, "started after the pump or motor was moved")
-        board.add("air-in-oil", WEAK, "started after the pump was changed: an inlet joint")
-    if noise_at_setting:
-        board.add("valve-chatter", STRONG, "noise comes at the pressure setting")
-    if slow_or_hot:
-        board.add("pump-wear", STRONG, "slower machine or hotter pump: wear inside")
+    ticked = board.tick(SYMPTOMS, symptoms)
     verdicts = _score_readings(board, inlet_pressure, pump_min_inlet, suction_velocity)
-    entered = count_entered(worse_cold, whine, rattle, foam, strainer_old, level_low, vibration,
-                            after_pump_work, noise_at_setting, slow_or_hot, inlet_pressure,
-                            suction_velocity)
+    entered = ticked + count_entered(inlet_pressure, suction_velocity)
     result = checklist_result(board, entered, CAUTION, verdicts)
     if inlet_pressure is not None and pump_min_inlet is None:
         result.note("The pump's minimum inlet pressure was taken as 0.8 bar absolute (common "

@@ -7,8 +7,9 @@ temperature the tank and cooler should reach; enter the measured ones here.
 
 from __future__ import annotations
 
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, both_or_neither,
-                         checklist_result, count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom,
+                         both_or_neither, checklist_result, count_entered, symptom_fields,
+                         RANKING_OUTPUTS)
 from .errors import InputError
 from .registry import Field, tool
 from .result import Q
@@ -20,6 +21,31 @@ CAUSES = (
     ("tank-low", "Too little oil, or a tank too small for the heat"),
     ("hot-surroundings", "Hot surroundings or blocked air flow"),
     ("wrong-viscosity", "Oil too thick or too thin for the machine"),
+)
+
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("hot_when_idle", "Hot even while the machine waits or holds pressure",
+            (("relief-blowing", STRONG, "hot while waiting: the pump delivers over a valve"),)),
+    Symptom("relief_hot", "A relief valve or its return line is hotter than the rest",
+            (("relief-blowing", STRONG, "the relief valve or its line runs hottest"),)),
+    Symptom("hissing_valve", "A valve hisses or whistles",
+            (("relief-blowing", MODERATE, "a valve hisses: oil flowing over it"),
+             ("internal-leakage", WEAK, "a valve hisses: oil flowing past it"))),
+    Symptom("slow_under_load", "Motion slows as the oil warms",
+            (("internal-leakage", MODERATE, "slower when warm: leakage grows as oil thins"),
+             ("wrong-viscosity", WEAK, "slower when warm: the oil may be too thin"))),
+    Symptom("pump_case_hot", "Pump case or its drain line very hot",
+            (("internal-leakage", STRONG, "pump case or drain line very hot: leakage inside"),)),
+    Symptom("cooler_dirty", "Cooler fins dirty, fan not running, or water valve shut",
+            (("cooler", STRONG, "cooler dirty, fan stopped or water valve shut"),)),
+    Symptom("level_low", "Oil level low in the sight glass",
+            (("tank-low", STRONG, "low oil level: less oil and less wetted tank wall"),)),
+    Symptom("hot_room", "Machine in a hot place, or the tank boxed in",
+            (("hot-surroundings", MODERATE, "hot place or the tank boxed in"),)),
+    Symptom("after_oil_change", "Started after an oil change or top-up with another oil",
+            (("wrong-viscosity", STRONG, "started after an oil change or top-up"),)),
 )
 
 _T = "temperature"
@@ -82,15 +108,7 @@ def _temperature_verdicts(temp) -> list[tuple]:
             "ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("hot_when_idle", "Hot even while the machine waits or holds pressure"),
-        flag("relief_hot", "A relief valve or its return line is hotter than the rest"),
-        flag("hissing_valve", "A valve hisses or whistles"),
-        flag("slow_under_load", "Motion slows as the oil warms"),
-        flag("pump_case_hot", "Pump case or its drain line very hot"),
-        flag("cooler_dirty", "Cooler fins dirty, fan not running, or water valve shut"),
-        flag("level_low", "Oil level low in the sight glass"),
-        flag("hot_room", "Machine in a hot place, or the tank boxed in"),
-        flag("after_oil_change", "Started after an oil change or top-up with another oil"),
+        *symptom_fields(SYMPTOMS),
         Field("temp", "Oil temperature in the tank", _T, None, min=-40.0, max=200.0,
               optional=True),
         Field("cooler_in", "Oil temperature into the cooler", _T, None, min=-40.0, max=200.0,
@@ -102,41 +120,17 @@ def _temperature_verdicts(temp) -> list[tuple]:
     ),
     outputs=RANKING_OUTPUTS,
 )
-def checklist_overheating(hot_when_idle=False, relief_hot=False, hissing_valve=False,
-                          slow_under_load=False, pump_case_hot=False, cooler_dirty=False,
-                          level_low=False, hot_room=False, after_oil_change=False, temp=None,
-                          cooler_in=None, cooler_out=None, ambient=None):
-    """Rank the causes of hot oil from symptoms and temperatures."""
+def checklist_overheating(temp=None, cooler_in=None, cooler_out=None, ambient=None, **symptoms):
+    """Rank the causes of hot oil from the ticked SYMPTOMS and temperatures."""
     both_or_neither("enter the oil temperature both into and out of the cooler, or neither",
                     cooler_in=cooler_in, cooler_out=cooler_out)
     if cooler_in is not None and cooler_out > cooler_in + 1.0:
         raise InputError("cooler_out", "oil leaving a cooler cannot be warmer than oil going in: "
                                        "check which reading is which")
     board = Scoreboard(CAUSES)
-    if hot_when_idle:
-        board.add("relief-blowing", STRONG, "hot while waiting: the pump delivers over a valve")
-    if relief_hot:
-        board.add("relief-blowing", STRONG, "the relief valve or its line runs hottest")
-    if hissing_valve:
-        board.add("relief-blowing", MODERATE, "a valve hisses: oil flowing over it")
-        board.add("internal-leakage", WEAK, "a valve hisses: oil flowing past it")
-    if slow_under_load:
-        board.add("internal-leakage", MODERATE, "slower when warm: leakage grows as oil thins")
-        board.add("wrong-viscosity", WEAK, "slower when warm: the oil may be too thin")
-    if pump_case_hot:
-        board.add("internal-leakage", STRONG, "pump case or drain line very hot: leakage inside")
-    if cooler_dirty:
-        board.add("cooler", STRONG, "cooler dirty, fan stopped or water valve shut")
-    if level_low:
-        board.add("tank-low", STRONG, "low oil level: less oil and less wetted tank wall")
-    if hot_room:
-        board.add("hot-surroundings", MODERATE, "hot place or the tank boxed in")
-    if after_oil_change:
-        board.add("wrong-viscosity", STRONG, "started after an oil change or top-up")
+    ticked = board.tick(SYMPTOMS, symptoms)
     _score_temperatures(board, temp, cooler_in, cooler_out, ambient)
-    entered = count_entered(hot_when_idle, relief_hot, hissing_valve, slow_under_load,
-                            pump_case_hot, cooler_dirty, level_low, hot_room, after_oil_change,
-                            temp, cooler_in, ambient)
+    entered = ticked + count_entered(temp, cooler_in, ambient)
     result = checklist_result(board, entered, CAUTION, _temperature_verdicts(temp))
     result.sources.append("Oil temperatures 60 / 80 °C, cooler drop 3 K, 20 K above the air: "
                           "common practice, from memory")

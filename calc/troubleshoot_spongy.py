@@ -9,8 +9,8 @@ is at the temperature entered here.
 from __future__ import annotations
 
 from . import air
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom,
+                         checklist_result, count_entered, symptom_fields, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
 from .result import Q
 
@@ -21,6 +21,31 @@ CAUSES = (
     ("internal-leakage", "Leakage past seals or valve spools"),
     ("soft-lines", "Long or soft hoses swelling under pressure"),
     ("low-pressure", "Supply pressure too low for the load"),
+)
+
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("foam_or_cloudy", "Foam in the tank or cloudy oil",
+            (("entrained-air", STRONG, "foam or cloudy oil: air in the oil"),)),
+    Symptom("after_repair", "Started after the circuit was opened or refilled",
+            (("trapped-air", STRONG, "started after the circuit was opened: not bled"),)),
+    Symptom("springy_stop", "Actuator bounces or springs back when it stops",
+            ((("entrained-air", "trapped-air", "soft-lines"), WEAK,
+              "springs back when stopped: something in the column gives"),)),
+    Symptom("jerky_slow", "Jerky at low speed",
+            ((("trapped-air", "entrained-air"), WEAK, "jerky at low speed"),)),
+    Symptom("worse_cold", "Worse with cold oil, better once warm",
+            (("cold-oil", STRONG, "worse cold, better warm"),)),
+    Symptom("drifts", "A held cylinder creeps or drifts",
+            (("internal-leakage", STRONG, "a held cylinder drifts: oil passes a seal or spool"),)),
+    Symptom("slow_under_load", "Slow only under load",
+            ((("internal-leakage", "low-pressure"), MODERATE, "slow only under load"),)),
+    Symptom("long_hoses", "Long hoses between valve and actuator",
+            (("soft-lines", MODERATE, "long hoses swell and store oil"),)),
+    Symptom("pressure_drops", "Gauge pressure falls under load",
+            (("low-pressure", STRONG, "pressure falls under load"),
+             ("internal-leakage", WEAK, "pressure falls under load: the pump may leak inside"))),
 )
 
 # Common practice, from memory: well-deaerated oil in service carries well under 1 % air by
@@ -77,15 +102,7 @@ def _score_air(board: Scoreboard, air_content, pressure):
             "slow motion are ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("foam_or_cloudy", "Foam in the tank or cloudy oil"),
-        flag("after_repair", "Started after the circuit was opened or refilled"),
-        flag("springy_stop", "Actuator bounces or springs back when it stops"),
-        flag("jerky_slow", "Jerky at low speed"),
-        flag("worse_cold", "Worse with cold oil, better once warm"),
-        flag("drifts", "A held cylinder creeps or drifts"),
-        flag("slow_under_load", "Slow only under load"),
-        flag("long_hoses", "Long hoses between valve and actuator"),
-        flag("pressure_drops", "Gauge pressure falls under load"),
+        *symptom_fields(SYMPTOMS),
         Field("temp", "Oil temperature", "temperature", None, min=-40.0, max=150.0,
               optional=True),
         Field("air_content", "Entrained air, by volume at atmospheric pressure", "percent", None,
@@ -96,32 +113,10 @@ def _score_air(board: Scoreboard, air_content, pressure):
     outputs=(*RANKING_OUTPUTS,
              Output("stiffness_loss", "Stiffness lost to the air", "percent")),
 )
-def checklist_spongy(foam_or_cloudy=False, after_repair=False, springy_stop=False,
-                     jerky_slow=False, worse_cold=False, drifts=False, slow_under_load=False,
-                     long_hoses=False, pressure_drops=False, temp=None, air_content=None,
-                     pressure=None):
-    """Rank the causes of spongy or sluggish motion from symptoms and readings."""
+def checklist_spongy(temp=None, air_content=None, pressure=None, **symptoms):
+    """Rank the causes of spongy or sluggish motion from the ticked SYMPTOMS and readings."""
     board = Scoreboard(CAUSES)
-    if foam_or_cloudy:
-        board.add("entrained-air", STRONG, "foam or cloudy oil: air in the oil")
-    if after_repair:
-        board.add("trapped-air", STRONG, "started after the circuit was opened: not bled")
-    if springy_stop:
-        board.add_each(("entrained-air", "trapped-air", "soft-lines"), WEAK,
-                       "springs back when stopped: something in the column gives")
-    if jerky_slow:
-        board.add_each(("trapped-air", "entrained-air"), WEAK, "jerky at low speed")
-    if worse_cold:
-        board.add("cold-oil", STRONG, "worse cold, better warm")
-    if drifts:
-        board.add("internal-leakage", STRONG, "a held cylinder drifts: oil passes a seal or spool")
-    if slow_under_load:
-        board.add_each(("internal-leakage", "low-pressure"), MODERATE, "slow only under load")
-    if long_hoses:
-        board.add("soft-lines", MODERATE, "long hoses swell and store oil")
-    if pressure_drops:
-        board.add("low-pressure", STRONG, "pressure falls under load")
-        board.add("internal-leakage", WEAK, "pressure falls under load: the pump may leak inside")
+    ticked = board.tick(SYMPTOMS, symptoms)
     if temp is not None:
         if temp < COLD_C:
             board.add("cold-oil", MODERATE, "oil at {0}, below {1}: several times thicker than "
@@ -129,9 +124,7 @@ def checklist_spongy(foam_or_cloudy=False, after_repair=False, springy_stop=Fals
         elif temp > WARM_C:
             board.add("cold-oil", AGAINST, "oil at {0}: warm enough", Q(temp, "temperature"))
     loss = _score_air(board, air_content, pressure)
-    entered = count_entered(foam_or_cloudy, after_repair, springy_stop, jerky_slow, worse_cold,
-                            drifts, slow_under_load, long_hoses, pressure_drops, temp,
-                            air_content)
+    entered = ticked + count_entered(temp, air_content)
     result = checklist_result(board, entered, CAUTION)
     result.values["stiffness_loss"] = loss
     result.sources += ["Air content 1 %, oil below 15 °C: common practice, from memory",

@@ -9,8 +9,8 @@ temperature with calc.water's saturation line for the oil type.
 from __future__ import annotations
 
 from . import water
-from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, checklist_result,
-                         count_entered, flag, RANKING_OUTPUTS)
+from .checklists import (AGAINST, MODERATE, STRONG, TOPIC, WEAK, Scoreboard, Symptom,
+                         checklist_result, count_entered, symptom_fields, RANKING_OUTPUTS)
 from .registry import Field, Output, tool
 from .result import Q
 
@@ -20,6 +20,35 @@ CAUSES = (
     ("cooler-leak", "Leaking water-cooled oil cooler"),
     ("wet-topup", "Wet new oil or dirty top-up containers"),
     ("emulsion", "Oil holding water instead of letting it settle"),
+)
+
+# Tick boxes in the order of the form, each with the points it gives (common practice, see
+# calc.checklists).
+SYMPTOMS = (
+    Symptom("milky_oil", "Oil milky or hazy, does not clear from the bottom up",
+            (("emulsion", MODERATE, "milky oil: the water stays mixed in"),
+             (("cooler-leak", "seal-ingress"), WEAK, "milky oil: much water in the oil"))),
+    Symptom("free_water", "Water found at the tank drain or sample bottom",
+            ((("cooler-leak", "seal-ingress", "condensation"), WEAK, "free water at the drain"),
+             ("emulsion", AGAINST, "free water settles out: the oil lets go of water"))),
+    Symptom("cools_overnight", "Machine stands idle and cools, or the room is humid",
+            (("condensation", STRONG, "the tank cools and breathes in humid air"),)),
+    Symptom("rust_top", "Rust or drops on the inside of the tank lid or breather",
+            (("condensation", MODERATE, "rust or drops inside the lid: condensation"),)),
+    Symptom("washdown", "Machine is washed down, stands outdoors or near steam",
+            (("seal-ingress", STRONG, "machine washed down or outdoors"),)),
+    Symptom("seals_worn", "Rod wipers, hatch or filler seals worn or missing",
+            (("seal-ingress", MODERATE, "worn wipers or seals let water past"),)),
+    Symptom("water_cooler", "Machine has a water-cooled oil cooler",
+            (("cooler-leak", WEAK, "a water-cooled cooler can leak into the oil"),)),
+    Symptom("cooling_water_lost", "Cooling water used up, or water pressure above oil pressure "
+            "in the cooler",
+            (("cooler-leak", STRONG, "cooling water lost, or at a higher pressure than the oil"),)),
+    Symptom("after_topup", "Started after a top-up or oil change",
+            (("wet-topup", STRONG, "started after a top-up or oil change"),
+             ("emulsion", WEAK, "a different oil may not shed water"))),
+    Symptom("drums_outside", "Oil drums stored outside or left open",
+            (("wet-topup", MODERATE, "drums outside breathe in rain water"),)),
 )
 
 # Common practice, from memory: a hydraulic oil is kept below about 200 ppm; above 500 ppm
@@ -90,17 +119,7 @@ def _score_readings(board: Scoreboard, ppm, rh, temp) -> list[tuple]:
             "ranked, each with its checks and cautions.",
     topic=TOPIC,
     inputs=(
-        flag("milky_oil", "Oil milky or hazy, does not clear from the bottom up"),
-        flag("free_water", "Water found at the tank drain or sample bottom"),
-        flag("cools_overnight", "Machine stands idle and cools, or the room is humid"),
-        flag("rust_top", "Rust or drops on the inside of the tank lid or breather"),
-        flag("washdown", "Machine is washed down, stands outdoors or near steam"),
-        flag("seals_worn", "Rod wipers, hatch or filler seals worn or missing"),
-        flag("water_cooler", "Machine has a water-cooled oil cooler"),
-        flag("cooling_water_lost", "Cooling water used up, or water pressure above oil pressure "
-              "in the cooler"),
-        flag("after_topup", "Started after a top-up or oil change"),
-        flag("drums_outside", "Oil drums stored outside or left open"),
+        *symptom_fields(SYMPTOMS),
         Field("ppm", "Water content (lab, Karl Fischer)", "ppm", None, min=0.0, max=1.0e6,
               optional=True),
         Field("rh", "Water sensor reading (% saturation)", "percent", None, min=0.0, max=100.0,
@@ -114,44 +133,16 @@ def _score_readings(board: Scoreboard, ppm, rh, temp) -> list[tuple]:
              Output("saturation", "Water against saturation", "percent",
                     "The sensor's reading, or worked out from ppm and temperature.")),
 )
-def checklist_water(milky_oil=False, free_water=False, cools_overnight=False, rust_top=False,
-                    washdown=False, seals_worn=False, water_cooler=False,
-                    cooling_water_lost=False, after_topup=False, drums_outside=False,
-                    ppm=None, rh=None, temp=None, oil="mineral-aw"):
-    """Rank the ways water gets into the oil from symptoms and readings."""
+def checklist_water(ppm=None, rh=None, temp=None, oil="mineral-aw", **symptoms):
+    """Rank the ways water gets into the oil from the ticked SYMPTOMS and readings."""
     board = Scoreboard(CAUSES)
-    if milky_oil:
-        board.add("emulsion", MODERATE, "milky oil: the water stays mixed in")
-        board.add_each(("cooler-leak", "seal-ingress"), WEAK, "milky oil: much water in the oil")
-    if free_water:
-        board.add_each(("cooler-leak", "seal-ingress", "condensation"), WEAK,
-                       "free water at the drain")
-        board.add("emulsion", AGAINST, "free water settles out: the oil lets go of water")
-    if cools_overnight:
-        board.add("condensation", STRONG, "the tank cools and breathes in humid air")
-    if rust_top:
-        board.add("condensation", MODERATE, "rust or drops inside the lid: condensation")
-    if washdown:
-        board.add("seal-ingress", STRONG, "machine washed down or outdoors")
-    if seals_worn:
-        board.add("seal-ingress", MODERATE, "worn wipers or seals let water past")
-    if water_cooler:
-        board.add("cooler-leak", WEAK, "a water-cooled cooler can leak into the oil")
-    if cooling_water_lost:
-        board.add("cooler-leak", STRONG, "cooling water lost, or at a higher pressure than the oil")
-    if after_topup:
-        board.add("wet-topup", STRONG, "started after a top-up or oil change")
-        board.add("emulsion", WEAK, "a different oil may not shed water")
-    if drums_outside:
-        board.add("wet-topup", MODERATE, "drums outside breathe in rain water")
+    ticked = board.tick(SYMPTOMS, symptoms)
     saturation = rh
     if rh is None and ppm is not None and temp is not None:
         line = water.saturation_line(oil)
         saturation = water.relative_saturation_pct(ppm, temp, line.a, line.b)
     verdicts = _score_readings(board, ppm, saturation, temp)
-    entered = count_entered(milky_oil, free_water, cools_overnight, rust_top, washdown,
-                            seals_worn, water_cooler, cooling_water_lost, after_topup,
-                            drums_outside, ppm, rh, temp)
+    entered = ticked + count_entered(ppm, rh, temp)
     result = checklist_result(board, entered, CAUTION, verdicts)
     result.values["saturation"] = saturation
     if saturation is not None and rh is None:
