@@ -1,8 +1,8 @@
 """What the page template needs, derived from the registry and the markdown under site_src/.
 
 Nothing here describes a tool: labels, units, defaults and ranges come from
-calc.registry; prose comes from site_src/help/<tool-id>.md, site_src/pages/*.md
-and site_src/checklists/<name>.md.
+calc.kernel.registry (a checklist's causes, checks and cautions too); prose comes from
+site_src/help/<tool-id>.md, site_src/pages/*.md and site_src/checklists/<checklist-id>.md.
 """
 
 from __future__ import annotations
@@ -18,9 +18,7 @@ ROOT = Path(__file__).resolve().parent.parent
 if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
-from calc import registry, units  # noqa: E402
-
-CHECKLIST_PREFIX = "checklist-"
+from calc.kernel import registry, units  # noqa: E402
 
 
 def render_markdown(text: str) -> str:
@@ -56,6 +54,7 @@ class InputView:
 @dataclass
 class ToolView:
     id: str
+    kind: str
     title: str
     summary: str
     topic: str
@@ -65,8 +64,8 @@ class ToolView:
 
 
 @dataclass
-class Item:
-    kind: str  # check or caution
+class CheckView:
+    key: str
     html: str
     tool: str | None = None
     tool_title: str | None = None
@@ -77,12 +76,13 @@ class CauseView:
     key: str
     title: str
     about_html: str
-    items: list[Item]
+    checks: list[CheckView]
+    caution_html: str
 
 
 @dataclass
 class ChecklistView:
-    name: str
+    id: str
     tool: ToolView
     title: str
     intro_html: str
@@ -98,10 +98,9 @@ class Site:
 
 
 def tool_view(found: registry.Tool, help_dir: Path) -> ToolView:
-    """The tool as the template shows it; a checklist's own markdown is its help."""
+    """The tool as the template shows it; a checklist's prose file is its help."""
     help_file = help_dir / f"{found.id}.md"
-    is_checklist = found.id.startswith(CHECKLIST_PREFIX)
-    if not help_file.exists() and not is_checklist:
+    if not help_file.exists() and found.kind == "tool":
         raise SystemExit(f"build: {help_file.relative_to(ROOT)} is missing: every tool has help")
     inputs = []
     for f in found.inputs:
@@ -121,60 +120,50 @@ def tool_view(found: registry.Tool, help_dir: Path) -> ToolView:
     outputs = [{"key": o.key, "label": o.label, "help": o.help,
                 "unit_metric": units.unit_label(o.quantity, "metric"),
                 "unit_us": units.unit_label(o.quantity, "us")} for o in found.outputs]
-    return ToolView(found.id, found.title, found.summary, found.topic, inputs, outputs,
+    return ToolView(found.id, found.kind, found.title, found.summary, found.topic.title, inputs,
+                    outputs,
                     render_markdown(help_file.read_text(encoding="utf-8")) if help_file.exists() else "")
 
 
-_CAUSE = re.compile(r"^##\s+(?P<title>.+?)\s*\{#(?P<key>[a-z0-9-]+)\}\s*$")
-_CHECK = re.compile(r"^-\s*\[ \]\s*Check:\s*(?P<text>.+?)\s*(\{tool=(?P<tool>[a-z0-9-]+)\})?\s*$")
-_CAUTION = re.compile(r"^>\s?(?P<text>.*)$")
+_SECTION = re.compile(r"^##\s*\{#(?P<key>[a-z0-9-]+)\}\s*$")
 
 
-def parse_checklist(text: str, source: str, tool_titles: dict[str, str]) -> tuple[str, str, list[CauseView]]:
-    """(title, intro html, causes) of a checklist file; see DEVELOPERS.md for the format."""
-    title, intro, causes = None, [], []
-    about: list[str] = []
-    caution: list[str] | None = None
-
-    def close_caution():
-        nonlocal caution
-        if caution is not None:
-            causes[-1].items.append(Item("caution", render_inline(" ".join(caution))))
-            caution = None
-
+def checklist_prose(text: str, source: str) -> tuple[str, dict[str, str]]:
+    """(intro html, {cause key: html}) of a checklist's prose file; see DEVELOPERS.md."""
+    intro: list[str] = []
+    sections: dict[str, list[str]] = {}
+    current = intro
     for number, line in enumerate(text.splitlines(), 1):
-        where = f"{source}:{number}"
-        if caution is not None and not line.startswith(">"):
-            close_caution()
-        if line.startswith("# ") and title is None:
-            title = line[2:].strip()
-        elif m := _CAUSE.match(line):
-            if causes:
-                causes[-1].about_html = render_markdown("\n".join(about))
-            causes.append(CauseView(m["key"], m["title"], "", []))
-            about = []
-        elif m := _CHECK.match(line):
-            if not causes:
-                raise SystemExit(f"build: {where}: a check before the first cause heading")
-            tool = m["tool"]
-            if tool and tool not in tool_titles:
-                raise SystemExit(f"build: {where}: no tool {tool!r}")
-            causes[-1].items.append(Item("check", render_inline(m["text"]), tool,
-                                         tool_titles.get(tool) if tool else None))
-        elif m := _CAUTION.match(line):
-            if not causes:
-                raise SystemExit(f"build: {where}: a caution before the first cause heading")
-            caution = (caution or []) + [m["text"]]
-        elif causes:
-            about.append(line)
+        if m := _SECTION.match(line):
+            if m["key"] in sections:
+                raise SystemExit(f"build: {source}:{number}: section {m['key']!r} twice")
+            current = sections[m["key"]] = []
+        elif line.startswith("#"):
+            raise SystemExit(f"build: {source}:{number}: only '## {{#cause-key}}' headings: "
+                             "titles, checks and cautions are declared in calc")
         else:
-            intro.append(line)
-    close_caution()
-    if causes:
-        causes[-1].about_html = render_markdown("\n".join(about))
-    if title is None or not causes:
-        raise SystemExit(f"build: {source}: a checklist needs a '# title' and '## cause {{#key}}' sections")
-    return title, render_markdown("\n".join(intro)), causes
+            current.append(line)
+    return render_markdown("\n".join(intro)), {k: render_markdown("\n".join(v))
+                                               for k, v in sections.items()}
+
+
+def checklist_view(found: registry.Tool, view: ToolView, site_dir: Path,
+                   titles: dict[str, str]) -> ChecklistView:
+    """A checklist as the template shows it: the declaration's causes with their prose."""
+    path = site_dir / "checklists" / f"{found.id}.md"
+    if not path.exists():
+        raise SystemExit(f"build: {path.relative_to(ROOT)} is missing for {found.id}")
+    source = str(path.relative_to(ROOT))
+    intro, about = checklist_prose(path.read_text(encoding="utf-8"), source)
+    declared = [c.key for c in found.causes]
+    if list(about) != declared:
+        raise SystemExit(f"build: {source}: sections {list(about)} must be the declared causes "
+                         f"{declared}, in that order")
+    causes = [CauseView(c.key, c.title, about[c.key],
+                        [CheckView(k.key, render_inline(k.text), k.tool, titles.get(k.tool))
+                         for k in c.checks], render_inline(c.caution))
+              for c in found.causes]
+    return ChecklistView(found.id, view, found.title, intro, causes)
 
 
 def load(site_dir: Path) -> Site:
@@ -182,18 +171,11 @@ def load(site_dir: Path) -> Site:
     views = {tool_id: tool_view(t, site_dir / "help") for tool_id, t in found.items()}
     titles = {tool_id: v.title for tool_id, v in views.items()}
     topics: dict[str, list[ToolView]] = {}
-    checklists = []
-    for tool_id, view in views.items():
-        if tool_id.startswith(CHECKLIST_PREFIX):
-            name = tool_id[len(CHECKLIST_PREFIX):]
-            path = site_dir / "checklists" / f"{name}.md"
-            if not path.exists():
-                raise SystemExit(f"build: {path.relative_to(ROOT)} is missing for {tool_id}")
-            title, intro, causes = parse_checklist(path.read_text(encoding="utf-8"),
-                                                   str(path.relative_to(ROOT)), titles)
-            checklists.append(ChecklistView(name, view, title, intro, causes))
-        else:
+    for view in views.values():
+        if view.kind == "tool":
             topics.setdefault(view.topic, []).append(view)
+    checklists = [checklist_view(t, views[t.id], site_dir, titles)
+                  for t in registry.of_kind("checklist").values()]
     pages = {p.stem: render_markdown(p.read_text(encoding="utf-8"))
              for p in sorted((site_dir / "pages").glob("*.md"))}
     return Site(list(topics.items()), checklists, pages, views)

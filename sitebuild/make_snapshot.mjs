@@ -43,13 +43,13 @@ const report = pyodide.runPython(`
 import gc, json, pkgutil, importlib, sys, site, zipfile
 with zipfile.ZipFile("/tmp/sumpside.whl") as _wheel:
     _wheel.extractall(site.getsitepackages()[0])
-import calc, calc.bridge, calc.registry
+import calc, calc.bridge, calc.kernel.registry
 # Every module of the package, not only the registered topics: a lazy import after a
 # restore would need the wheel's files, which a memory snapshot does not hold.
 for info in pkgutil.walk_packages(calc.__path__, "calc."):
     if info.name != "calc.__main__":
         importlib.import_module(info.name)
-_tools = calc.registry.tools()
+_tools = calc.kernel.registry.tools()
 _failed = []
 for _id in _tools:
     for _units in ("metric", "us"):

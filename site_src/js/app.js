@@ -252,11 +252,11 @@ function showBackLink(view) {
   const from = session.get("sumpside.from", null);
   const slot = view.querySelector("[data-back]");
   if (!slot) return;
-  const checklist = from && views.get("checklist/" + from);
+  const checklist = from && views.get("tool/" + from);
   slot.hidden = !checklist;
   if (checklist) {
     const a = document.createElement("a");
-    a.href = "#/checklist/" + from;
+    a.href = "#/tool/" + from;
     a.textContent = "← Back to " + checklist.querySelector("h1").textContent + " (the result is carried over)";
     slot.replaceChildren(a);
   }

@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import pytest
 
-from calc import bridge, registry
+from calc import bridge
+from calc.kernel import registry
 
 from .conftest import BOOT_TIMEOUT_MS, PHONE, Watch, open_app, wait_answer
 

@@ -7,20 +7,20 @@ import io
 
 import pytest
 
-from calc import bridge, registry
+from calc import bridge
+from calc.kernel import registry
 
 from .conftest import BOOT_TIMEOUT_MS, open_app
 
-CHECKLISTS = [t[len("checklist-"):] for t in registry.tools() if t.startswith("checklist-")]
+CHECKLISTS = list(registry.of_kind("checklist"))
 
 
 def _first_flag(tool_id):
     return next(f.key for f in registry.get(tool_id).inputs if f.is_flag)
 
 
-def _rank(page, name):
-    tool = "checklist-" + name
-    view = f'#view-checklist-{name}'
+def _rank(page, tool):
+    view = f'#view-tool-{tool}'
     flag = _first_flag(tool)
     page.locator(f'{view} input[name="{flag}"]').check()
     page.wait_for_function(
@@ -38,10 +38,10 @@ def _pdf_pages_and_text(pdf: bytes):
 @pytest.mark.parametrize("name", CHECKLISTS)
 @pytest.mark.parametrize("paper", ["A4", "Letter"])
 def test_checklist_ranks_and_prints_on_two_pages(page, base_url, watch, name, paper):
-    open_app(page, base_url, f"#/checklist/{name}")
+    open_app(page, base_url, f"#/tool/{name}")
     expected = _rank(page, name)
     first = next(c for c in expected["ranked"])
-    shown_first = page.locator(f"#view-checklist-{name} [data-causes] > section").first
+    shown_first = page.locator(f"#view-tool-{name} [data-causes] > section").first
     assert shown_first.get_attribute("data-cause") == first["key"]
     page.emulate_media(media="print")
     pages, text = _pdf_pages_and_text(page.pdf(format=paper, print_background=False))
@@ -54,11 +54,11 @@ def test_checklist_ranks_and_prints_on_two_pages(page, base_url, watch, name, pa
 
 def test_checklist_works_offline(page, context, base_url, watch):
     name = CHECKLISTS[0]
-    open_app(page, base_url, f"#/checklist/{name}")
+    open_app(page, base_url, f"#/tool/{name}")
     page.wait_for_function("() => navigator.serviceWorker.controller !== null", timeout=BOOT_TIMEOUT_MS)
     context.set_offline(True)
     try:
-        open_app(page, base_url, f"#/checklist/{name}")
+        open_app(page, base_url, f"#/tool/{name}")
         _rank(page, name)
     finally:
         context.set_offline(False)
@@ -67,8 +67,8 @@ def test_checklist_works_offline(page, context, base_url, watch):
 
 def test_tool_result_flows_back_into_the_checklist(page, base_url):
     name = CHECKLISTS[0]
-    open_app(page, base_url, f"#/checklist/{name}")
-    link = page.locator(f"#view-checklist-{name} a[data-from-checklist]").first
+    open_app(page, base_url, f"#/tool/{name}")
+    link = page.locator(f"#view-tool-{name} a[data-from-checklist]").first
     if not link.count():
         pytest.skip("this checklist links no tool")
     tool = link.get_attribute("href").rsplit("/", 1)[-1]
@@ -76,5 +76,5 @@ def test_tool_result_flows_back_into_the_checklist(page, base_url):
     page.wait_for_function("t => document.querySelector(`form[data-tool='${t}']`).dataset.level", arg=tool,
                            timeout=BOOT_TIMEOUT_MS)
     page.click("[data-back] a")
-    reading = page.locator(f'#view-checklist-{name} [data-reading-of="{tool}"]').first
+    reading = page.locator(f'#view-tool-{name} [data-reading-of="{tool}"]').first
     assert reading.inner_text().startswith("Latest:")

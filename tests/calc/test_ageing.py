@@ -4,11 +4,11 @@ import math
 
 import pytest
 
-from calc.ageing import (GAS_CONSTANT, KELVIN, activation_energy_for_doubling, equivalent_hours,
+from calc.tools.ageing import (GAS_CONSTANT, KELVIN, activation_energy_for_doubling, equivalent_hours,
                          equivalent_temperature_arrhenius, equivalent_temperature_doubling,
                          hours_to_limit, life_arrhenius, life_doubling, oxidation_life,
                          oxidation_trend)
-from calc.errors import InputError
+from calc.kernel.errors import InputError
 
 
 def _life(**kw):

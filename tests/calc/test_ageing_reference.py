@@ -6,7 +6,7 @@ import pytest
 
 fluids_constants = pytest.importorskip("fluids.constants")
 
-from calc.ageing import GAS_CONSTANT, activation_energy_for_doubling  # noqa: E402
+from calc.tools.ageing import GAS_CONSTANT, activation_energy_for_doubling  # noqa: E402
 
 
 def test_gas_constant_matches_codata():

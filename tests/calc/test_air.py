@@ -5,9 +5,9 @@ import math
 import pytest
 
 from calc import bridge
-from calc.air import (air_fraction_at_pressure, air_stiffness, column_compression,
+from calc.tools.air import (air_fraction_at_pressure, air_stiffness, column_compression,
                       effective_bulk_modulus, load_pressure_bar)
-from calc.errors import InputError
+from calc.kernel.errors import InputError
 
 DEFAULTS = dict(air=1.0, pressure=160.0, process="isothermal", k_oil=16000.0, atmosphere=1.013,
                 bore=100.0, stroke=500.0, line_volume=0.0, load=100.0)

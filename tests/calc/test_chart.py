@@ -5,7 +5,8 @@ import xml.etree.ElementTree as ET
 
 import pytest
 
-from calc import bridge, chart
+from calc import bridge
+from calc.kernel import chart
 
 SVG = "{http://www.w3.org/2000/svg}"
 
@@ -115,7 +116,7 @@ def _labels(root):
 
 @pytest.mark.parametrize("tool_id, name, axis, scale", TEMPERATURE_CHARTS)
 def test_chart_follows_the_unit_system(tool_id, name, axis, scale):
-    from calc import registry
+    from calc.kernel import registry
     result = registry.get(tool_id).run({}, "metric")
     draw = result.charts[name]
     assert callable(draw)

@@ -5,72 +5,60 @@ import re
 
 import pytest
 
-from calc import bridge, registry
-from calc.checklists import AGAINST, STRONG, WEAK, Scoreboard, checklist_result
+from calc import bridge
+from calc.kernel import registry
+from calc.checklists.scoreboard import AGAINST, STRONG, WEAK, Scoreboard, checklist_result
 
-CHECKLISTS = sorted(t for t in registry.tools() if t.startswith("checklist-"))
+CHECKLISTS = sorted(registry.of_kind("checklist"))
 SITE = pathlib.Path(__file__).resolve().parents[2] / "site_src" / "checklists"
-CORE_TOOLS = {"viscosity-at-temperature", "viscosity-grade", "water-in-oil", "tank-volume",
-              "tank-sizing", "tank-heat", "line-velocity", "suction-check", "air-stiffness",
-              "foam-air-tests", "oxidation-life", "oil-condition", "iso-4406"}
-HEADING = re.compile(r"^## (.+?) \{#([a-z0-9-]+)\}$")
+SECTION = re.compile(r"^## \{#([a-z0-9-]+)\}$")
 
 
-def _page(tool_id):
+def _sections(tool_id):
+    """The cause keys of the checklist's prose file, in order."""
     if not SITE.is_dir():
         pytest.skip("site_src is not here (inside Pyodide)")
-    return (SITE / (tool_id.removeprefix("checklist-") + ".md")).read_text(encoding="utf-8")
+    text = (SITE / f"{tool_id}.md").read_text(encoding="utf-8")
+    return [m.group(1) for m in map(SECTION.match, text.splitlines()) if m]
 
 
-def _sections(text):
-    """(key, title, check lines, caution lines) per `## Title {#key}` section."""
-    sections = []
-    for line in text.splitlines():
-        m = HEADING.match(line)
-        if m:
-            sections.append((m.group(2), m.group(1), [], []))
-        elif sections and line.startswith("- [ ] Check:"):
-            sections[-1][2].append(line)
-        elif sections and line.startswith("> **Caution:**"):
-            sections[-1][3].append(line)
-    return sections
-
-
-def test_the_six_checklists_are_registered():
-    assert CHECKLISTS == sorted(f"checklist-{n}" for n in (
-        "aeration", "water", "overheating", "contamination", "spongy", "noisy-pump"))
-    assert all(registry.get(t).topic == "Troubleshooting" for t in CHECKLISTS)
+def test_checklists_are_declared_as_such():
+    assert CHECKLISTS, "the registry finds the checklist modules"
+    troubleshooting = sorted(t for t, found in registry.tools().items()
+                             if found.topic is registry.TROUBLESHOOTING)
+    assert CHECKLISTS == troubleshooting
+    assert all(registry.get(t).causes for t in CHECKLISTS)
+    assert not any(found.causes for found in registry.of_kind("tool").values())
 
 
 @pytest.mark.parametrize("tool_id", CHECKLISTS)
-def test_page_sections_are_the_rules_causes_in_order(tool_id):
-    # Both ways: every Cause key has a section, every section is a Cause; same order (tie-break).
-    sections = _sections(_page(tool_id))
-    ranked = bridge.run(tool_id, {})["ranked"]
-    assert [(s[0], s[1]) for s in sections] == [(c["key"], c["title"]) for c in ranked]
+def test_prose_sections_are_the_declared_causes_in_order(tool_id):
+    # Both ways: every declared cause has a section, every section is a cause; same order,
+    # which is also the ranking's tie-break when nothing is entered.
+    declared = [c.key for c in registry.get(tool_id).causes]
+    assert _sections(tool_id) == declared
+    assert [c["key"] for c in bridge.run(tool_id, {})["ranked"]] == declared
 
 
 @pytest.mark.parametrize("tool_id", CHECKLISTS)
-def test_page_format_is_printable(tool_id):
-    text = _page(tool_id)
-    lines = text.splitlines()
-    assert lines[0].startswith("# ") and not lines[0].startswith("## ")
-    sections = _sections(text)
-    assert 4 <= len(sections) <= 7
-    for key, _, checks, cautions in sections:
-        assert 2 <= len(checks) <= 4, key
-        assert cautions, f"{key} has no caution"
-        for check in checks:
-            for used in re.findall(r"\{tool=([a-z0-9-]+)\}", check):
-                assert used in CORE_TOOLS and used in registry.tools(), used
-            if "{tool=" in check:  # the tool reference closes the line
-                assert re.search(r"\{tool=[a-z0-9-]+\}$", check.rstrip()), check
+def test_declaration_is_printable(tool_id):
+    causes = registry.get(tool_id).causes
+    assert 4 <= len(causes) <= 7
+    for cause in causes:
+        assert cause.title and 2 <= len(cause.checks) <= 4, cause.key
+        assert cause.caution, f"{cause.key} has no caution"
+        for check in cause.checks:
+            assert check.text.endswith((".", "?")), check.key
+            if check.tool:
+                assert registry.get(check.tool).kind == "tool", check.tool
 
 
 @pytest.mark.parametrize("tool_id", CHECKLISTS)
-def test_page_names_the_usual_cautions(tool_id):
-    text = _page(tool_id).lower()
-    assert "lock" in text and "pressure" in text
+def test_cautions_name_the_usual_hazards(tool_id):
+    found = registry.get(tool_id)
+    cautions = " ".join(c.caution for c in found.causes).lower()
+    cautions += " ".join(n for n in bridge.run(tool_id, {})["notes"]).lower()
+    assert "lock" in cautions and "pressure" in cautions
 
 
 @pytest.mark.parametrize("tool_id", CHECKLISTS)

@@ -3,7 +3,7 @@
 import pytest
 
 from calc import bridge
-from calc.troubleshoot_aeration import checklist_aeration
+from calc.checklists.aeration import checklist_aeration
 
 OIL_SIDE = {"antifoam-overdose", "contaminated-oil", "wrong-topup", "antifoam-lost"}
 MECHANICAL = {"suction-leak", "return-line", "tank-dwell"}

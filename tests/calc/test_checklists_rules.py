@@ -6,11 +6,11 @@ Thresholds are the modules' own, each marked there: common practice, from memory
 import pytest
 
 from calc import bridge
-from calc.troubleshoot_contamination import checklist_contamination
-from calc.troubleshoot_noisy_pump import checklist_noisy_pump
-from calc.troubleshoot_overheating import checklist_overheating
-from calc.troubleshoot_spongy import checklist_spongy
-from calc.troubleshoot_water import checklist_water
+from calc.checklists.contamination import checklist_contamination
+from calc.checklists.noisy_pump import checklist_noisy_pump
+from calc.checklists.overheating import checklist_overheating
+from calc.checklists.spongy import checklist_spongy
+from calc.checklists.water import checklist_water
 
 
 def _order(result):

@@ -3,11 +3,11 @@
 import pytest
 
 from calc import bridge
-from calc.cleanliness import (ABOVE_TABLE, SCALE_TABLE, beta_efficiency_pct, code_excess,
+from calc.tools.cleanliness import (ABOVE_TABLE, SCALE_TABLE, beta_efficiency_pct, code_excess,
                               downstream_count, excess_level, filter_beta, format_code,
                               iso4406_code, iso_4406, parse_code, scale_number, scale_range,
                               target_code)
-from calc.errors import InputError
+from calc.kernel.errors import InputError
 
 
 def _iso(**kw):

@@ -3,8 +3,8 @@
 import pytest
 
 from calc import bridge
-from calc.condition import level_falling, level_rising, oil_condition, viscosity_change_pct
-from calc.errors import InputError
+from calc.tools.condition import level_falling, level_rising, oil_condition, viscosity_change_pct
+from calc.kernel.errors import InputError
 
 
 def _check(**kw):

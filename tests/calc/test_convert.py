@@ -3,9 +3,9 @@
 import pytest
 
 from calc import bridge
-from calc.convert import (LINEAR_UNITS, convert, kinematic_from_saybolt,
+from calc.tools.convert import (LINEAR_UNITS, convert, kinematic_from_saybolt,
                           saybolt_seconds, sus_at_100f, unit_convert)
-from calc.errors import InputError
+from calc.kernel.errors import InputError
 
 F100_IN_C = (100.0 - 32.0) * 5.0 / 9.0
 

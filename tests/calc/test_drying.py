@@ -5,9 +5,9 @@ import math
 import pytest
 
 from calc import bridge
-from calc.drying import (drying_target_ppm, drying_time_min, halving_time_min,
+from calc.tools.drying import (drying_target_ppm, drying_time_min, halving_time_min,
                          well_mixed_content_ppm, water_drying)
-from calc.water import saturation_line
+from calc.tools.water import saturation_line
 
 
 def _run(**inputs):

@@ -3,8 +3,8 @@
 import pytest
 
 from calc import bridge
-from calc.errors import InputError
-from calc.foam import foam_air_tests, foam_patterns, foam_sequences, grade_limits
+from calc.kernel.errors import InputError
+from calc.tools.foam import foam_air_tests, foam_patterns, foam_sequences, grade_limits
 
 # Limits of ISO 11158 HM / DIN 51524-2 HLP, FROM MEMORY (no copy of the standard at hand):
 # foam 150/0 mL in sequences I and III, 75/0 mL in II; air release at 50 degC.

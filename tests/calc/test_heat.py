@@ -4,9 +4,9 @@ import math
 
 import pytest
 
-from calc.convection import STEFAN_BOLTZMANN, air_properties, radiation_coefficient
-from calc.errors import InputError
-from calc.heat import (heat_capacity_kj_per_k, heat_load_from_power_kw,
+from calc.methods.convection import STEFAN_BOLTZMANN, air_properties, radiation_coefficient
+from calc.kernel.errors import InputError
+from calc.tools.heat import (heat_capacity_kj_per_k, heat_load_from_power_kw,
                        heat_load_from_throttle_kw, shed_kw, steady_temperature_c, tank_heat,
                        tank_surfaces, time_to_temperature_min)
 

@@ -7,7 +7,7 @@ import pytest
 chemicals = pytest.importorskip("chemicals")
 from chemicals import air as lemmon  # noqa: E402
 
-from calc.convection import AIR_1ATM, KELVIN, air_properties  # noqa: E402
+from calc.methods.convection import AIR_1ATM, KELVIN, air_properties  # noqa: E402
 
 ATM_PA = 101325.0
 

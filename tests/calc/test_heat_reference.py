@@ -4,7 +4,7 @@ import pytest
 
 ht = pytest.importorskip("ht")
 
-from calc.convection import (GRAVITY, KELVIN, air_properties, convection_coefficient,  # noqa: E402
+from calc.methods.convection import (GRAVITY, KELVIN, air_properties, convection_coefficient,  # noqa: E402
                              nu_horizontal_cylinder, nu_plate_cold_side_up, nu_plate_hot_side_up,
                              nu_vertical_plate)
 

@@ -5,7 +5,7 @@ import math
 import pytest
 
 from calc import bridge
-from calc.lines import (HOSE_SIZES, bore_for_velocity, colebrook_friction, darcy_drop_bar,
+from calc.tools.lines import (HOSE_SIZES, bore_for_velocity, colebrook_friction, darcy_drop_bar,
                         friction_factor, line_velocity, line_velocity_tool, next_hose_size,
                         reynolds_number, velocity_range)
 

@@ -5,8 +5,9 @@ import math
 
 import pytest
 
-from calc import bridge, registry, units
-from calc.errors import InputError
+from calc import bridge
+from calc.kernel import registry, units
+from calc.kernel.errors import InputError
 
 TOOLS = registry.tools()
 

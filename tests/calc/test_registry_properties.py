@@ -7,7 +7,8 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
-from calc import bridge, registry  # noqa: E402
+from calc import bridge  # noqa: E402
+from calc.kernel import registry
 
 TOOLS = registry.tools()
 

@@ -3,7 +3,7 @@ import math
 
 import pytest
 
-from calc.solve import bisect, bracket
+from calc.kernel.solve import bisect, bracket
 
 
 def test_bisect_finds_sqrt_two():

@@ -5,7 +5,7 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import assume, given, settings, strategies as st  # noqa: E402
 
-from calc.suction import suction_check  # noqa: E402
+from calc.tools.suction import suction_check  # noqa: E402
 
 systems = st.fixed_dictionaries({
     "flow": st.floats(min_value=5.0, max_value=400.0),

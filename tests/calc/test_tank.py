@@ -5,8 +5,8 @@ import math
 import pytest
 
 from calc import bridge
-from calc.errors import InputError
-from calc.tank import (horizontal_cylinder_level_mm, horizontal_cylinder_volume_l,
+from calc.kernel.errors import InputError
+from calc.tools.tank import (horizontal_cylinder_level_mm, horizontal_cylinder_volume_l,
                        level_for_volume_mm, rectangular_volume_l, tank_sizing, tank_volume,
                        vertical_cylinder_volume_l, volume_at_level_l)
 

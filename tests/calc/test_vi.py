@@ -3,8 +3,8 @@
 import pytest
 
 from calc import bridge
-from calc.errors import InputError
-from calc.vi import (D2270_TABLE, kv100_from_vi, kv40_from_vi, lh_values, round_vi,
+from calc.kernel.errors import InputError
+from calc.tools.vi import (D2270_TABLE, kv100_from_vi, kv40_from_vi, lh_values, round_vi,
                      viscosity_index, viscosity_index_tool)
 
 

@@ -5,8 +5,8 @@ import math
 import pytest
 
 from calc import bridge
-from calc.errors import InputError
-from calc.water import (OIL_PRESETS, content_ppm, fit_saturation, free_water_ppm,
+from calc.kernel.errors import InputError
+from calc.tools.water import (OIL_PRESETS, content_ppm, fit_saturation, free_water_ppm,
                         free_water_temp_c, relative_saturation_pct, saturation_line,
                         saturation_ppm, water_in_oil, water_volume_ml)
 

@@ -8,9 +8,9 @@ hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
 from calc import bridge  # noqa: E402
-from calc.drying import drying_time_min, well_mixed_content_ppm  # noqa: E402
-from calc.errors import InputError  # noqa: E402
-from calc.water import (CALIBRATION_KEYS, OIL_PRESETS, content_ppm,  # noqa: E402
+from calc.tools.drying import drying_time_min, well_mixed_content_ppm  # noqa: E402
+from calc.kernel.errors import InputError  # noqa: E402
+from calc.tools.water import (CALIBRATION_KEYS, OIL_PRESETS, content_ppm,  # noqa: E402
                         free_water_temp_c, relative_saturation_pct, saturation_line)
 
 presets = st.sampled_from([p[0] for p in OIL_PRESETS])

@@ -1,0 +1,409 @@
+"""The catalogue: every tool and checklist declared once, beside the function that computes it.
+
+A module under calc/tools/ declares a tool with the `tool` decorator::
+
+    @tool("viscosity-at-temperature", title=..., summary=..., topic=topics.VISCOSITY,
+          inputs=(Field("kv40", "KV at 40 °C", "kinematic_viscosity", 46.0, min=0.5),),
+          outputs=(Output("kv", "Viscosity at temp", "kinematic_viscosity", headline=True),))
+    def viscosity_at_temperature(kv40, ...): ...
+
+A module under calc/checklists/ declares a checklist with `calc.checklists.scoreboard.checklist`.
+Modules are found, not listed: `tools()` imports every module of those two packages once.
+The page's forms, the CLI's arguments, the web worker's dispatch and the tests are all
+derived from these declarations; a declaration that does not fit its function (an input
+the function does not take, a parameter no field fills, an unknown quantity, a default
+outside its range) fails when the module is imported, not at the first call.
+"""
+
+from __future__ import annotations
+
+import importlib
+import inspect
+import math
+import pkgutil
+from dataclasses import dataclass
+from typing import Callable
+
+from . import units
+from .constants import ABSOLUTE_ZERO_C
+from .errors import InputError
+from .result import Result
+
+# The packages whose modules declare tools and checklists.
+PACKAGES = ("calc.tools", "calc.checklists")
+KINDS = ("tool", "checklist")
+# Field groups, in the order a form shows them: the reading typed at the machine, the
+# machine's own facts, and the limits and options that change how the reading is judged.
+GROUPS = ("reading", "machine", "limits")
+
+
+@dataclass(frozen=True)
+class Topic:
+    """A section of the catalogue; TOPICS gives their order."""
+
+    key: str
+    title: str
+
+
+VISCOSITY = Topic("viscosity", "Viscosity")
+WATER = Topic("water", "Water")
+TANK = Topic("tank", "Tank and circuit")
+AIR = Topic("air", "Air and foam")
+AGEING = Topic("ageing", "Oil life and condition")
+CLEANLINESS = Topic("cleanliness", "Cleanliness")
+UNITS = Topic("units", "Units")
+TROUBLESHOOTING = Topic("troubleshooting", "Troubleshooting")
+TOPICS = (VISCOSITY, WATER, TANK, AIR, AGEING, CLEANLINESS, UNITS, TROUBLESHOOTING)
+
+
+@dataclass(frozen=True)
+class Tracked:
+    """A quantity of the oil's condition that is followed over time, whichever tool gives it."""
+
+    key: str
+    label: str
+    quantity: str
+
+
+TRACKED = {t.key: t for t in (
+    Tracked("kv40", "Viscosity at 40 °C", "kinematic_viscosity"),
+    Tracked("kv40_change", "Viscosity change from new", "percent"),
+    Tracked("water_ppm", "Water content", "ppm"),
+    Tracked("water_saturation", "Water, % of saturation", "percent"),
+    Tracked("acid_rise", "Acid number rise", "acid_number"),
+    Tracked("oxidation_reserve", "Oxidation reserve", "percent"),
+)}
+
+
+@dataclass(frozen=True)
+class Field:
+    """One input of a tool.
+
+    quantity : a key of `units.QUANTITIES`, "choice" for a pick from `choices`, or
+        "flag" for a tick box (reaches the function as True / False)
+    default : what the form starts with, metric; None with ``optional`` means blank
+    min, max : the allowed range, metric, inclusive
+    choices : (value, label) pairs of a choice field
+    optional : a blank entry is allowed and reaches the function as None
+    group : "reading" (typed at the machine), "machine" (a fact of the machine) or
+        "limits" (limits and options)
+    """
+
+    key: str
+    label: str
+    quantity: str
+    default: float | str | None = None
+    min: float | None = None
+    max: float | None = None
+    help: str = ""
+    choices: tuple[tuple[str, str], ...] = ()
+    optional: bool = False
+    group: str = "reading"
+
+    @property
+    def is_choice(self) -> bool:
+        return self.quantity in ("choice", "flag")
+
+    @property
+    def is_flag(self) -> bool:
+        return self.quantity == "flag"
+
+    def check_declaration(self, where: str) -> None:
+        """ValueError unless this field is well declared (called when a tool is declared)."""
+        if self.group not in GROUPS:
+            raise ValueError(f"{where}: field {self.key!r} group must be one of {GROUPS}")
+        if self.is_flag:
+            if self.default not in (None, False, True):
+                raise ValueError(f"{where}: tick box {self.key!r} defaults to True or False")
+            return
+        if self.is_choice:
+            if not self.choices or self.default not in [c[0] for c in self.choices]:
+                raise ValueError(f"{where}: choice {self.key!r} needs choices and a default "
+                                 "among them")
+            return
+        units.quantity(self.quantity)
+        if self.default is None and not self.optional:
+            return
+        if self.default is not None:
+            self.check_range(float(self.default), "metric")
+
+    def parse(self, raw: object, system: str) -> float | str | None:
+        """The metric value of what was typed, or InputError naming this field."""
+        if self.is_flag:
+            return _parse_flag(raw, self.key)
+        if raw is None or (isinstance(raw, str) and not raw.strip()):
+            if self.optional:
+                return None
+            if self.default is None:
+                raise InputError(self.key, f"{self.label} is needed")
+            return self.default
+        if self.is_choice:
+            value = str(raw).strip()
+            allowed = [c[0] for c in self.choices]
+            if value not in allowed:
+                raise InputError(self.key, f"must be one of {', '.join(allowed)}, not {value!r}")
+            return value
+        value = units.to_metric(units.parse_number(raw, self.key), self.quantity, system)
+        self.check_range(value, system)
+        return value
+
+    def check_range(self, value: float, system: str) -> None:
+        if self.quantity == "temperature" and value <= ABSOLUTE_ZERO_C:
+            raise InputError(self.key, "is at or below absolute zero (-273.15 °C, -459.67 °F)")
+        low_ok = self.min is None or value >= self.min
+        high_ok = self.max is None or value <= self.max
+        if low_ok and high_ok:
+            return
+        show = lambda v: units.show(v, self.quantity, system)  # noqa: E731
+        if self.min is not None and self.max is not None:
+            allowed = f"between {show(self.min)} and {show(self.max)}"
+        elif self.min is not None:
+            allowed = f"at least {show(self.min)}"
+        else:
+            allowed = f"at most {show(self.max)}"
+        raise InputError(self.key, f"{self.label} must be {allowed}, not {show(value)}")
+
+    def describe(self, system: str = "metric") -> dict:
+        """This field for the catalogue, in `system` units."""
+        convert = (lambda v: v) if self.is_choice else (
+            lambda v: None if v is None else units.from_metric(v, self.quantity, system))
+        if self.is_flag:
+            return {"key": self.key, "label": self.label, "quantity": "flag", "unit": "",
+                    "default": bool(self.default), "min": None, "max": None, "help": self.help,
+                    "choices": [], "optional": True, "group": self.group}
+        return {
+            "key": self.key,
+            "label": self.label,
+            "quantity": self.quantity,
+            "unit": "" if self.is_choice else units.unit_label(self.quantity, system),
+            "default": self.default if self.is_choice or self.default is None
+            else convert(self.default),
+            "min": None if self.is_choice else convert(self.min),
+            "max": None if self.is_choice else convert(self.max),
+            "help": self.help,
+            "choices": [list(c) for c in self.choices],
+            "optional": self.optional,
+            "group": self.group,
+        }
+
+
+_TRUE = ("1", "true", "yes", "on", "y")
+_FALSE = ("", "0", "false", "no", "off", "n")
+
+
+def _parse_flag(raw: object, key: str) -> bool:
+    if raw is None or isinstance(raw, bool):
+        return bool(raw)
+    word = str(raw).strip().lower()
+    if word in _TRUE:
+        return True
+    if word in _FALSE:
+        return False
+    raise InputError(key, f"is a tick box: yes or no, not {str(raw).strip()!r}")
+
+
+@dataclass(frozen=True)
+class Output:
+    """One shown result of a tool.
+
+    headline : one of the few values shown beside the verdict (the answer at a glance)
+    tracks : the key of the condition quantity (TRACKED) this output measures, so the log
+        and the machine page follow it over time whichever tool gave it
+    """
+
+    key: str
+    label: str
+    quantity: str
+    help: str = ""
+    headline: bool = False
+    tracks: str | None = None
+
+    def check_declaration(self, where: str) -> None:
+        units.quantity(self.quantity)
+        if self.tracks is not None:
+            tracked = TRACKED.get(self.tracks)
+            if tracked is None or tracked.quantity != self.quantity:
+                raise ValueError(f"{where}: output {self.key!r} tracks {self.tracks!r}, which "
+                                 f"is not a {self.quantity} condition quantity")
+
+    def describe(self, system: str = "metric") -> dict:
+        return {"key": self.key, "label": self.label, "quantity": self.quantity,
+                "unit": units.unit_label(self.quantity, system), "help": self.help,
+                "headline": self.headline, "tracks": self.tracks}
+
+
+@dataclass(frozen=True)
+class Check:
+    """One check of a checklist cause: what to do, and the tool that gives its number."""
+
+    key: str
+    text: str
+    tool: str | None = None
+
+
+@dataclass(frozen=True)
+class Cause:
+    """One cause of a checklist as declared: its title, its checks and its caution."""
+
+    key: str
+    title: str
+    checks: tuple[Check, ...]
+    caution: str
+
+
+@dataclass(frozen=True)
+class Tool:
+    id: str
+    title: str
+    summary: str
+    topic: Topic
+    inputs: tuple[Field, ...]
+    outputs: tuple[Output, ...]
+    compute: Callable[..., Result]
+    kind: str = "tool"
+    causes: tuple[Cause, ...] = ()  # a checklist's causes, in the order of its page
+
+    def field(self, key: str) -> Field:
+        for f in self.inputs:
+            if f.key == key:
+                return f
+        raise KeyError(key)
+
+    @property
+    def headline(self) -> tuple[str, ...]:
+        return tuple(o.key for o in self.outputs if o.headline)
+
+    def parse(self, raw: dict, system: str = "metric") -> dict:
+        """All inputs in metric units, every bad field reported at once."""
+        unknown = sorted(set(raw) - {f.key for f in self.inputs})
+        errors = [InputError(k, f"is not an input of {self.id}; inputs are "
+                                f"{', '.join(f.key for f in self.inputs)}") for k in unknown]
+        values = {}
+        for f in self.inputs:
+            try:
+                values[f.key] = f.parse(raw.get(f.key), system)
+            except InputError as err:
+                errors.append(err)
+        if errors:
+            raise InputError.combine(errors)
+        return values
+
+    def run(self, raw: dict, system: str = "metric") -> Result:
+        result = self.compute(**self.parse(raw, units.check_system(system)))
+        self._check(result)
+        return result
+
+    def _check(self, result: Result) -> None:
+        """A tool that returns a non-finite or undeclared value is a bug, not an answer."""
+        declared = {o.key for o in self.outputs}
+        extra = set(result.values) - declared
+        if extra:
+            raise RuntimeError(f"{self.id} returned undeclared outputs {sorted(extra)}")
+        for key, value in result.values.items():
+            if isinstance(value, float) and not math.isfinite(value):
+                raise RuntimeError(f"{self.id} computed a non-finite {key}")
+
+    def describe(self, system: str = "metric") -> dict:
+        return {
+            "id": self.id, "title": self.title, "summary": self.summary,
+            "topic": self.topic.title, "kind": self.kind,
+            "inputs": [f.describe(system) for f in self.inputs],
+            "outputs": [o.describe(system) for o in self.outputs],
+        }
+
+
+def check_signature(where: str, fn: Callable, keys: list[str], skip: int = 0) -> None:
+    """ValueError unless `fn` takes exactly the fields `keys` (after `skip` leading
+    parameters), by name: a field the function ignores, or a parameter no field fills,
+    is a declaration bug."""
+    params = list(inspect.signature(fn).parameters.values())[skip:]
+    loose = [p.name for p in params if p.kind in (p.VAR_POSITIONAL, p.VAR_KEYWORD)]
+    if loose:
+        raise ValueError(f"{where}: {fn.__name__} takes *{loose[0]}: name every input")
+    names = [p.name for p in params]
+    unused = sorted(set(keys) - set(names))
+    unfilled = sorted(set(names) - set(keys))
+    if unused or unfilled:
+        raise ValueError(f"{where}: {fn.__name__} does not fit its fields: "
+                         f"fields it does not take {unused}, parameters no field fills "
+                         f"{unfilled}")
+
+
+_TOOLS: dict[str, Tool] = {}
+
+
+def register(found: Tool) -> None:
+    """Add a declared tool or checklist to the catalogue, checking its declaration."""
+    where = found.id
+    if found.kind not in KINDS:
+        raise ValueError(f"{where}: kind must be one of {KINDS}")
+    if found.topic not in TOPICS:
+        raise ValueError(f"{where}: topic {found.topic!r} is not one of registry.TOPICS")
+    keys = [f.key for f in found.inputs]
+    if len(set(keys)) != len(keys):
+        raise ValueError(f"{where}: duplicate input keys")
+    out_keys = [o.key for o in found.outputs]
+    if len(set(out_keys)) != len(out_keys):
+        raise ValueError(f"{where}: duplicate output keys")
+    for f in found.inputs:
+        f.check_declaration(where)
+    for o in found.outputs:
+        o.check_declaration(where)
+    if not found.headline:
+        raise ValueError(f"{where}: no output is marked as the headline")
+    known = _TOOLS.get(found.id)
+    if known is not None and known.compute is not found.compute:
+        raise ValueError(f"tool {found.id!r} declared twice")
+    _TOOLS[found.id] = found
+
+
+def tool(tool_id: str, *, title: str, summary: str, topic: Topic,
+         inputs: tuple[Field, ...], outputs: tuple[Output, ...]):
+    """Declare the decorated function as the tool `tool_id`; its parameters are the inputs."""
+    def declare(fn: Callable[..., Result]) -> Callable[..., Result]:
+        check_signature(tool_id, fn, [f.key for f in inputs])
+        register(Tool(tool_id, title, summary, topic, tuple(inputs), tuple(outputs), fn))
+        return fn
+
+    return declare
+
+
+_discovered = False
+
+
+def discover() -> None:
+    """Import every module of PACKAGES once; importing a module declares its tools.
+
+    After a memory-snapshot restore the package files may not be on disk yet: the flag,
+    set before the snapshot is taken, keeps this from looking again.
+    """
+    global _discovered
+    if _discovered:
+        return
+    for package_name in PACKAGES:
+        package = importlib.import_module(package_name)
+        for info in sorted(pkgutil.iter_modules(package.__path__), key=lambda m: m.name):
+            importlib.import_module(f"{package_name}.{info.name}")
+    _discovered = True
+
+
+def _order(found: Tool) -> tuple:
+    return TOPICS.index(found.topic), found.title.casefold()
+
+
+def tools() -> dict[str, Tool]:
+    """Every tool and checklist, in catalogue order: by topic (TOPICS), then by title."""
+    discover()
+    return {t.id: t for t in sorted(_TOOLS.values(), key=_order)}
+
+
+def of_kind(kind: str) -> dict[str, Tool]:
+    """The tools (kind "tool") or the checklists (kind "checklist"), in catalogue order."""
+    return {i: t for i, t in tools().items() if t.kind == kind}
+
+
+def get(tool_id: str) -> Tool:
+    found = tools().get(tool_id)
+    if found is None:
+        raise InputError("tool", f"no tool {tool_id!r}; run `python -m calc tools` for the list")
+    return found

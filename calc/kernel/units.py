@@ -1,0 +1,216 @@
+"""Quantities, unit systems and the parsing of typed numbers.
+
+calc computes in the trade's metric units only. Every registry field names a
+quantity; this module converts that quantity between the metric unit calc uses
+and the unit a US technician reads, at the edge (the bridge and the CLI), and
+nowhere else.
+
+>>> to_metric(140.0, "temperature", "us")
+60.0
+>>> round(from_metric(100.0, "pressure", "us"), 1)
+1450.4
+>>> parse_number("46,5", "kv40")
+46.5
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Callable
+
+from .constants import (FOOT_IN_M, GAL_IN_L, HP_IN_KW, INCH_IN_MM, LB_IN_KG, LBF_IN_KN,
+                        PSI_IN_BAR)
+from .errors import InputError
+
+SYSTEMS = ("metric", "us")
+
+
+def _identity(x: float) -> float:
+    return x
+
+
+def _scale(factor: float) -> tuple[Callable[[float], float], Callable[[float], float]]:
+    """(metric -> us, us -> metric) for a plain proportional unit."""
+    return (lambda x: x / factor, lambda x: x * factor)
+
+
+@dataclass(frozen=True)
+class Quantity:
+    """A physical quantity: its metric unit, its US unit and the conversions.
+
+    ``to_us`` maps a metric value to the US unit, ``to_metric`` the reverse.
+    ``digits`` is how many significant figures are worth showing.
+    """
+
+    name: str
+    metric: str
+    us: str
+    to_us: Callable[[float], float] = _identity
+    to_metric: Callable[[float], float] = _identity
+    digits: int = 3
+    decimals: int | None = None  # fixed decimals instead of significant figures
+
+    def unit(self, system: str) -> str:
+        return self.us if system == "us" else self.metric
+
+
+def _quantity(name: str, metric: str, us: str | None = None, factor: float | None = None,
+              digits: int = 3, decimals: int | None = None) -> Quantity:
+    """A quantity whose US unit is `factor` metric units (1 US unit = factor metric)."""
+    if factor is None:
+        return Quantity(name, metric, us or metric, digits=digits, decimals=decimals)
+    to_us, to_metric = _scale(factor)
+    return Quantity(name, metric, us or metric, to_us, to_metric, digits, decimals)
+
+
+_FT2_IN_M2 = FOOT_IN_M ** 2
+
+QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
+    Quantity("temperature", "°C", "°F",
+             to_us=lambda c: c * 9.0 / 5.0 + 32.0,
+             to_metric=lambda f: (f - 32.0) * 5.0 / 9.0, decimals=1),
+    Quantity("temperature_difference", "K", "°F",
+             to_us=lambda k: k * 9.0 / 5.0, to_metric=lambda f: f * 5.0 / 9.0, decimals=1),
+    _quantity("kinematic_viscosity", "cSt"),
+    _quantity("pressure", "bar", "psi", PSI_IN_BAR, digits=4),
+    _quantity("pressure_kpa", "kPa", "psi", PSI_IN_BAR * 100.0),
+    _quantity("volume", "L", "US gal", GAL_IN_L, digits=4),
+    _quantity("volume_ml", "mL", "US fl oz", GAL_IN_L * 1000.0 / 128.0),
+    _quantity("foam_ml", "mL"),  # ASTM D892 reports foam in mL in US practice too
+    _quantity("flow", "L/min", "gpm", GAL_IN_L),
+    _quantity("length", "mm", "in", INCH_IN_MM),
+    _quantity("length_m", "m", "ft", FOOT_IN_M),
+    _quantity("area", "m²", "ft²", _FT2_IN_M2),
+    _quantity("velocity", "m/s", "ft/s", FOOT_IN_M),
+    _quantity("power", "kW", "hp", HP_IN_KW),
+    _quantity("mass", "kg", "lb", LB_IN_KG),
+    _quantity("density", "kg/m³", "lb/ft³", LB_IN_KG / FOOT_IN_M ** 3),  # NIST SP 811: 16.018 46 kg/m³
+    _quantity("force", "kN", "lbf", LBF_IN_KN),
+    _quantity("heat_transfer", "W/(m²·K)"),
+    _quantity("ppm", "ppm", digits=4),
+    _quantity("percent", "%"),
+    _quantity("fraction", ""),
+    _quantity("ratio", ""),
+    _quantity("count", "", decimals=0),
+    _quantity("per_ml", "/mL", digits=4),  # particles per mL (ISO 4406); no US unit
+    _quantity("acid_number", "mg KOH/g"),  # ASTM D664 / D974; no US unit
+    _quantity("molar_energy", "kJ/mol"),  # activation energy; shown in SI everywhere
+    _quantity("minutes", "min"),
+    _quantity("hours", "h", digits=4),
+    _quantity("seconds", "s"),
+    _quantity("per_bar", "1/bar", "1/psi", 1.0 / PSI_IN_BAR),
+    _quantity("vi", "", digits=4),
+    _quantity("text", ""),
+)}
+
+
+def quantity(name: str) -> Quantity:
+    try:
+        return QUANTITIES[name]
+    except KeyError:
+        raise ValueError(f"unknown quantity {name!r}") from None
+
+
+def check_system(system: str | None) -> str:
+    system = (system or "metric").strip().lower()
+    if system not in SYSTEMS:
+        raise InputError("units", f"unit system must be one of {', '.join(SYSTEMS)}, not {system!r}")
+    return system
+
+
+def to_metric(value: float, quantity_name: str, system: str) -> float:
+    """A value typed in `system` units, in calc's metric unit."""
+    if system != "us":
+        return value
+    return quantity(quantity_name).to_metric(value)
+
+
+def from_metric(value: float, quantity_name: str, system: str) -> float:
+    """A metric value from calc, in `system` units."""
+    if system != "us":
+        return value
+    return quantity(quantity_name).to_us(value)
+
+
+def unit_label(quantity_name: str, system: str) -> str:
+    return quantity(quantity_name).unit(system)
+
+
+def parse_number(text: object, field: str) -> float:
+    """A finite number from what a person typed.
+
+    Accepts "46.5", "46,5", " 1 200 ", "1,200.5", "1.200,5", "-5", "1e3".
+    Raises InputError naming `field` for anything else.
+
+    >>> parse_number("1.200,5", "volume")
+    1200.5
+    """
+    if isinstance(text, bool):
+        raise InputError(field, "must be a number")
+    if isinstance(text, (int, float)):
+        value = float(text)
+    else:
+        raw = str(text).strip().replace("\u2212", "-").replace("\u00a0", "").replace(" ", "")
+        raw = raw.replace("_", "")
+        if not raw:
+            raise InputError(field, "is empty: enter a number")
+        if "," in raw and "." in raw:
+            # The later separator is the decimal mark, the other groups thousands.
+            if raw.rfind(",") > raw.rfind("."):
+                raw = raw.replace(".", "").replace(",", ".")
+            else:
+                raw = raw.replace(",", "")
+        elif raw.count(",") == 1:
+            raw = raw.replace(",", ".")
+        try:
+            value = float(raw)
+        except ValueError:
+            raise InputError(field, f"must be a number, not {str(text).strip()!r}") from None
+    if not math.isfinite(value):
+        raise InputError(field, "must be a finite number")
+    return value
+
+
+def show(value: float | None, quantity_name: str, system: str) -> str:
+    """A metric value as a person reads it in `system`: "20.6 cSt", "141 °F"."""
+    if value is None:
+        return "n/a"
+    q = quantity(quantity_name)
+    shown = from_metric(value, quantity_name, system)
+    text = f"{shown:.{q.decimals}f}" if q.decimals is not None else format_number(shown, q.digits)
+    if text.startswith("-") and not text.strip("-0."):
+        text = text[1:]  # no "-0.0"
+    unit = q.unit(system)
+    if not unit:
+        return text
+    if unit == "%":
+        return f"{text} %"
+    return f"{text} {unit}"
+
+
+def format_number(value: float, digits: int = 3) -> str:
+    """`value` to `digits` significant figures, never in exponent form for field values.
+
+    >>> format_number(20.5893, 3), format_number(1234.5, 3), format_number(0.012345, 3)
+    ('20.6', '1230', '0.0123')
+    """
+    if value == 0 or not math.isfinite(value):
+        return "0" if value == 0 else str(value)
+    magnitude = math.floor(math.log10(abs(value)))
+    if magnitude >= 15:  # round() overflows near the float limit; such values are only echoed back
+        return f"{value:.{digits}g}"
+    decimals = digits - 1 - magnitude
+    if decimals > 0:
+        return f"{value:.{decimals}f}"
+    return f"{int(round(value, decimals))}"
+
+
+def format_input(value: float) -> str:
+    """A value as it is put back into a form field: 4 significant figures, no trailing zeros.
+
+    >>> format_input(140.0), format_input(6.8), format_input(0.000123456)
+    ('140', '6.8', '0.0001235')
+    """
+    text = format_number(value, 4)
+    return text.rstrip("0").rstrip(".") if "." in text else text

@@ -1,0 +1,231 @@
+"""Condition of an in-service oil: a reading or a lab report against limits.
+
+Each property is read against a watch and an act limit; the tool's overall
+verdict is the worst of them, and its findings are listed most urgent first.
+A reading that reaches a limit counts as over it (a change of exactly 10 % is at
+the act level, a reserve of exactly 25 % of new is at the act level).
+
+Limits (all editable on the form, each with its basis):
+- viscosity change of KV40 from the new oil: 5 % watch, 10 % act (common practice;
+  ISO 3448 grades are themselves +-10 % wide);
+- acid number rise over the new oil [mg KOH/g]: 0.3 watch, 0.5 act (common practice,
+  from memory; some programs act only at 1.0);
+- water [ppm]: 200 watch, 500 act (common practice for hydraulic oils);
+- ISO 4406 code against the target: 1 code over watch, 2 or more act (common practice);
+- oxidation reserve (RPVOT or similar, % of new): 50 % watch, 25 % act (ASTM D4378
+  guidance for turbine oils, from memory).
+"""
+
+from __future__ import annotations
+
+from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields, \
+    worst_excess
+from ..kernel.errors import InputError
+from ..kernel.registry import AGEING, Field, Output, tool
+from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Result
+
+_KV, _PCT, _AN, _PPM = "kinematic_viscosity", "percent", "acid_number", "ppm"
+
+
+def level_rising(value: float, watch: float, act: float) -> str:
+    """ok / watch / act for a reading that is bad when high; reaching a limit counts.
+
+    >>> level_rising(0.29, 0.3, 0.5), level_rising(0.3, 0.3, 0.5), level_rising(0.5, 0.3, 0.5)
+    ('ok', 'watch', 'act')
+    """
+    return "act" if value >= act else "watch" if value >= watch else "ok"
+
+
+def level_falling(value: float, watch: float, act: float) -> str:
+    """ok / watch / act for a reading that is bad when low; reaching a limit counts.
+
+    >>> level_falling(50.1, 50.0, 25.0), level_falling(50.0, 50.0, 25.0), level_falling(25.0, 50.0, 25.0)
+    ('ok', 'watch', 'act')
+    """
+    return "act" if value <= act else "watch" if value <= watch else "ok"
+
+
+def viscosity_change_pct(kv40_now_cst: float, kv40_new_cst: float) -> float:
+    """Change of KV40 from the new oil [%]: (now - new) / new * 100.
+
+    Rounded to 1e-9 % so that a reading exactly on a limit stays on it.
+
+    >>> viscosity_change_pct(50.6, 46.0), viscosity_change_pct(41.4, 46.0)
+    (10.0, -10.0)
+    """
+    return round((kv40_now_cst - kv40_new_cst) / kv40_new_cst * 100.0, 9)
+
+
+def acid_number_rise(an_now: float, an_new: float) -> float:
+    """Rise of the acid number over the new oil [mg KOH/g], rounded to 1e-9 as above.
+
+    >>> acid_number_rise(0.6, 0.3)
+    0.3
+    """
+    return round(an_now - an_new, 9)
+
+
+def _limit(key: str, label: str, quantity: str, default: float, low: float, high: float,
+           basis: str) -> Field:
+    return Field(key, label, quantity, default, min=low, max=high, help=basis)
+
+
+_VISC_ACTIONS = {
+    "up": "check for a top-up with a heavier oil, oxidation (compare acid number) or water "
+          "emulsion",
+    "down": "check for a top-up with a lighter oil, fuel or solvent, or shear of the "
+            "viscosity improver",
+}
+
+
+@tool(
+    "oil-condition",
+    title="Oil condition check",
+    summary="A reading or lab report against watch and act limits: viscosity change, acid "
+            "number, water, cleanliness and oxidation reserve, with one overall verdict.",
+    topic=AGEING,
+    inputs=(
+        Field("kv40_new", "KV40 of the new oil", _KV, 46.0, min=1.0, max=10000.0,
+              help="From the new-oil data sheet or the first sample."),
+        Field("kv40", "KV40 now", _KV, 49.5, min=1.0, max=10000.0),
+        Field("an_new", "Acid number of the new oil", _AN, None, min=0.0, max=20.0, optional=True),
+        Field("an_now", "Acid number now", _AN, None, min=0.0, max=50.0, optional=True),
+        Field("ppm", "Water", _PPM, None, min=0.0, max=1.0e6, optional=True),
+        *scale_fields("code", "ISO 4406 code now", "Blank for a size not reported ('-')."),
+        *scale_fields("target", "ISO 4406 target", "From the iso-4406 tool or the machine "
+                      "maker."),
+        Field("reserve", "Oxidation reserve, % of new", _PCT, None, min=0.0, max=200.0,
+              optional=True, help="RPVOT or similar, as a % of the new oil's result."),
+        _limit("visc_watch", "Viscosity change: watch", _PCT, 5.0, 0.5, 50.0, "common practice"),
+        _limit("visc_act", "Viscosity change: act", _PCT, 10.0, 1.0, 80.0,
+               "common practice; ISO 3448 grades are ±10 % wide"),
+        _limit("an_watch", "Acid number rise: watch", _AN, 0.3, 0.01, 10.0,
+               "common practice, from memory"),
+        _limit("an_act", "Acid number rise: act", _AN, 0.5, 0.02, 20.0,
+               "common practice, from memory; some programs act at 1.0"),
+        _limit("water_watch", "Water: watch", _PPM, 200.0, 10.0, 1.0e5, "common practice"),
+        _limit("water_act", "Water: act", _PPM, 500.0, 20.0, 1.0e5, "common practice"),
+        _limit("reserve_watch", "Oxidation reserve: watch", _PCT, 50.0, 2.0, 99.0,
+               "common practice"),
+        _limit("reserve_act", "Oxidation reserve: act", _PCT, 25.0, 1.0, 95.0,
+               "ASTM D4378 guidance, from memory"),
+    ),
+    outputs=(
+        Output("level", "Overall verdict", "text", headline=True),
+        Output("visc_change", "Viscosity change", _PCT, tracks="kv40_change"),
+        Output("an_rise", "Acid number rise", _AN, tracks="acid_rise"),
+        Output("excess", "Cleanliness: codes over target", "text"),
+        Output("findings", "Findings over a limit", "text", headline=True),
+    ),
+)
+def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
+                  an_now: float | None = None, ppm: float | None = None,
+                  code4: float | None = None, code6: float | None = None,
+                  code14: float | None = None, target4: float | None = None,
+                  target6: float | None = None, target14: float | None = None,
+                  reserve: float | None = None, visc_watch: float = 5.0, visc_act: float = 10.0,
+                  an_watch: float = 0.3, an_act: float = 0.5, water_watch: float = 200.0,
+                  water_act: float = 500.0, reserve_watch: float = 50.0,
+                  reserve_act: float = 25.0) -> Result:
+    """Every reading given against its limits; the worst level is the verdict."""
+    for watch_key, watch, act in (("visc_watch", visc_watch, visc_act),
+                                  ("an_watch", an_watch, an_act),
+                                  ("water_watch", water_watch, water_act)):
+        if act <= watch:
+            raise InputError(watch_key, "the watch limit must be below the act limit")
+    if reserve_act >= reserve_watch:
+        raise InputError("reserve_watch", "the watch level must be above the act level")
+    if (an_new is None) != (an_now is None):
+        raise InputError("an_new" if an_new is None else "an_now",
+                         "enter both acid numbers, new and now, or neither")
+    code = code_from_fields("code", (code4, code6, code14))
+    target = code_from_fields("target", (target4, target6, target14))
+    has_code, has_target = any(n is not None for n in code), any(n is not None for n in target)
+    if has_code != has_target:
+        raise InputError("target6" if has_code else "code6",
+                         "enter both the code now and its target, or neither (the iso-4406 "
+                         "tool gives typical targets)")
+
+    result = Result(values={"level": "ok", "visc_change": None, "an_rise": None,
+                            "excess": None, "findings": "0"})
+    change = viscosity_change_pct(kv40, kv40_new)
+    result.values["visc_change"] = change
+    _viscosity_verdict(result, change, kv40, kv40_new, visc_watch, visc_act)
+    if an_new is not None:
+        rise = acid_number_rise(an_now, an_new)
+        result.values["an_rise"] = rise
+        _limit_verdict(result, level_rising(rise, an_watch, an_act), _ACID_TEXT, _AN, rise,
+                       an_watch, an_act, basis=FROM_MEMORY)
+    if ppm is not None:
+        _limit_verdict(result, level_rising(ppm, water_watch, water_act), _WATER_TEXT, _PPM, ppm,
+                       water_watch, water_act)
+    if has_code:
+        result.values["excess"] = excess_text(worst_excess(code, target))
+        add_cleanliness_verdict(result, code, target)
+    if reserve is not None:
+        _limit_verdict(result, level_falling(reserve, reserve_watch, reserve_act),
+                       _RESERVE_TEXT, _PCT, reserve, reserve_watch, reserve_act,
+                       act_basis=FROM_MEMORY)
+
+    result.verdicts.sort(key=lambda v: -LEVELS.index(v.level))  # most urgent first
+    result.values["level"] = result.level
+    result.values["findings"] = str(sum(v.level != "ok" for v in result.verdicts))
+    result.note("One sample can mislead: confirm a bad result with a second sample taken the "
+                "same way before a costly action, and trend every result over time.")
+    result.note("Sampling a running machine: the line is under pressure and the oil may be hot; "
+                "keep hands away from leaks (injection injury). Dispose of used oil and wipes as "
+                "the site's rules require.")
+    result.sources += ["Viscosity change vs new oil: common practice (ISO 3448 grades ±10 %)",
+                       "Acid number rise (ASTM D664 / D974 results): common practice, from memory",
+                       "Water limits: common practice",
+                       "ISO 4406 code vs target: common practice",
+                       "Oxidation reserve limits: ASTM D4378 guidance, from memory"]
+    return result
+
+
+def _viscosity_verdict(result: Result, change: float, kv40: float, kv40_new: float,
+                       watch: float, act: float) -> None:
+    level = level_rising(abs(change), watch, act)
+    args = (Q(kv40, _KV), Q(kv40_new, _KV), Q(abs(change), _PCT))
+    if level == "ok":
+        result.add("ok", COMMON_PRACTICE, "Viscosity {0} is within {2} of the new oil's {1}.",
+                   *args)
+        return
+    direction = "up" if change > 0 else "down"
+    limit = Q(act if level == "act" else watch, _PCT)
+    what = "change the oil or correct the mix" if level == "act" else "resample and trend it"
+    result.add(level, COMMON_PRACTICE,
+               "Viscosity {0} has moved {2} from the new oil's {1} (limit {3}): "
+               f"{_VISC_ACTIONS[direction]}; {what}.", *args, limit)
+
+
+# Verdict sentences per level; {0} the reading, {1} the watch limit, {2} the act limit.
+_ACID_TEXT = {
+    "ok": "Acid number has risen {0}, below the watch limit {1}.",
+    "watch": "Acid number has risen {0} (watch at {1}): the oil is oxidising; check for heat, "
+             "air and water, and test the oxidation reserve.",
+    "act": "Acid number has risen {0} (act at {2}): the oil is oxidised or contaminated; plan "
+           "an oil change and look for varnish and the cause of the heat.",
+}
+_WATER_TEXT = {
+    "ok": "Water {0} is below the watch limit {1}.",
+    "watch": "Water {0} (watch at {1}): check breathers, coolers and seals, and drain free "
+             "water from the tank bottom.",
+    "act": "Water {0} (act at {2}): find and stop the entry (cooler leak, washdown, breather) "
+           "and dry the oil with a dehydrator or change it.",
+}
+_RESERVE_TEXT = {
+    "ok": "Oxidation reserve {0} of new is above the watch level {1}.",
+    "watch": "Oxidation reserve {0} of new (watch at {1}): sample more often; the "
+             "oxidation-trend tool estimates when it reaches the limit.",
+    "act": "Oxidation reserve {0} of new (act at {2}): the antioxidant is nearly spent; plan "
+           "the oil change and flush if there is varnish.",
+}
+
+
+def _limit_verdict(result: Result, level: str, texts: dict, quantity: str, value: float,
+                   watch: float, act: float, basis: str = COMMON_PRACTICE,
+                   act_basis: str | None = None) -> None:
+    """One verdict at `level` from a reading's sentence table."""
+    result.add(level, act_basis if level == "act" and act_basis else basis, texts[level],
+               Q(value, quantity), Q(watch, quantity), Q(act, quantity))

@@ -1,0 +1,224 @@
+"""Unit conversions the trade needs, including kinematic viscosity to Saybolt seconds.
+
+Plain units convert through one base unit of their kind by exact factors (NIST SP 811,
+appendix B; the US factors are those of `calc.units`, not written twice). Kinematic
+viscosity converts to Saybolt Universal Seconds by ASTM D2161:
+
+    SUS(100 degF) = 4.6324 v + (1 + 0.03264 v) / ((3930.2 + 262.7 v + 23.97 v^2 + 1.646 v^3) 1e-5)
+    SUS(t degF) = SUS(100 degF) (1 + 0.000061 (t - 100))
+
+with v in cSt; the reverse is solved numerically.
+
+Source: ASTM D2161, "Conversion of Kinematic Viscosity to Saybolt Universal Viscosity"
+(equations from memory of the standard, checked against chemicals.viscosity); NIST SP 811
+(2008), appendix B.
+"""
+
+from __future__ import annotations
+
+from ..kernel import units
+from ..kernel.constants import ABSOLUTE_ZERO_C, GAL_IN_L, HP_IN_KW, PSI_IN_BAR, \
+    STANDARD_ATMOSPHERE_BAR
+from ..kernel.errors import InputError
+from ..kernel.registry import UNITS, Field, Output, tool
+from ..kernel.result import Q, Result
+from ..kernel.solve import bisect
+
+# (key, label, kind, metric units per unit). Base units: °C, bar, L, L/min, kW, ppm, cSt.
+# Factors: NIST SP 811 (2008) appendix B, via calc.kernel.constants; 1 % = 10 000 ppm by definition.
+LINEAR_UNITS = (
+    ("bar", "bar", "pressure", 1.0),
+    ("psi", "psi", "pressure", PSI_IN_BAR),
+    ("kpa", "kPa", "pressure", 0.01),
+    ("mpa", "MPa", "pressure", 10.0),
+    ("atm", "atm (standard)", "pressure", STANDARD_ATMOSPHERE_BAR),
+    ("l", "L", "volume", 1.0),
+    ("usgal", "US gal", "volume", GAL_IN_L),
+    ("lpm", "L/min", "flow", 1.0),
+    ("gpm", "US gpm", "flow", GAL_IN_L),
+    ("kw", "kW", "power", 1.0),
+    ("hp", "hp (mechanical)", "power", HP_IN_KW),
+    ("ppm", "ppm", "concentration", 1.0),
+    ("percent", "%", "concentration", 1.0e4),
+    ("cst", "cSt (mm²/s)", "viscosity", 1.0),
+)
+TEMPERATURE_UNITS = (("c", "°C"), ("f", "°F"))
+# Saybolt Universal Seconds at 100 °F, 210 °F, or at the temperature entered [degF or None].
+SUS_UNITS = (("sus_100f", "SUS at 100 °F", 100.0), ("sus_210f", "SUS at 210 °F", 210.0),
+             ("sus_at_temp", "SUS at the temperature entered", None))
+
+UNIT_CHOICES = (tuple((k, label) for k, label in TEMPERATURE_UNITS)
+                + tuple((k, label) for k, label, _, _ in LINEAR_UNITS)
+                + tuple((k, label) for k, label, _ in SUS_UNITS))
+_LABELS = dict(UNIT_CHOICES)
+_KIND = {**{k: "temperature" for k, _ in TEMPERATURE_UNITS},
+         **{k: kind for k, _, kind, _ in LINEAR_UNITS},
+         **{k: "viscosity" for k, _, _ in SUS_UNITS}}
+_FACTOR = {k: f for k, _, _, f in LINEAR_UNITS}
+_SUS_TEMP_F = {k: t for k, _, t in SUS_UNITS}
+
+# ASTM D2161's scale starts at about 32 SUS, 1.8 cSt (from memory of the standard).
+SUS_KV_MIN_CST = 1.8
+SUS_KV_MAX_CST = 1.0e6
+
+
+def sus_at_100f(kv_cst: float) -> float:
+    """Saybolt Universal Seconds at 100 °F of a kinematic viscosity [cSt] (ASTM D2161).
+
+    SUS = 4.6324 v + (1 + 0.03264 v) / ((3930.2 + 262.7 v + 23.97 v^2 + 1.646 v^3) 1e-5)
+
+    >>> round(sus_at_100f(46.0), 1)
+    214.2
+    """
+    v = kv_cst
+    return 4.6324 * v + (1.0 + 0.03264 * v) / ((3930.2 + 262.7 * v + 23.97 * v ** 2
+                                                 + 1.646 * v ** 3) * 1.0e-5)
+
+
+def saybolt_seconds(kv_cst: float, temp_f: float = 100.0) -> float:
+    """Saybolt Universal Seconds of a kinematic viscosity [cSt] measured at `temp_f` [degF].
+
+    SUS(t) = SUS(100 degF) (1 + 0.000061 (t - 100))   (ASTM D2161)
+
+    >>> round(saybolt_seconds(10.0, 210.0), 2)
+    59.23
+    """
+    return sus_at_100f(kv_cst) * (1.0 + 0.000061 * (temp_f - 100.0))
+
+
+def kinematic_from_saybolt(sus: float, temp_f: float = 100.0) -> float:
+    """Kinematic viscosity [cSt] whose ASTM D2161 Saybolt seconds at `temp_f` [degF] are `sus`.
+
+    The D2161 relation rises steadily with v; solved by bisection to 1e-12 relative.
+
+    >>> round(kinematic_from_saybolt(saybolt_seconds(46.0, 210.0), 210.0), 9)
+    46.0
+    """
+    return bisect(lambda kv: saybolt_seconds(kv, temp_f) - sus, 0.5, SUS_KV_MAX_CST * 2.0,
+                  rel_tol=1e-12, max_iter=200)
+
+
+def celsius_to_fahrenheit(temp_c: float) -> float:
+    """degF = degC 9/5 + 32, exact (NIST SP 811).
+
+    >>> celsius_to_fahrenheit(100.0)
+    212.0
+    """
+    return temp_c * 9.0 / 5.0 + 32.0
+
+
+def fahrenheit_to_celsius(temp_f: float) -> float:
+    """degC = (degF - 32) 5/9, exact (NIST SP 811).
+
+    >>> fahrenheit_to_celsius(-40.0)
+    -40.0
+    """
+    return (temp_f - 32.0) * 5.0 / 9.0
+
+
+def _check_value(value: float, unit: str, temp_f: float) -> None:
+    kind = _KIND[unit]
+    if kind == "temperature":
+        temp_c = value if unit == "c" else fahrenheit_to_celsius(value)
+        if temp_c <= ABSOLUTE_ZERO_C:
+            raise InputError("value", "is at or below absolute zero (-273.15 °C, -459.67 °F)")
+    elif kind == "pressure":
+        return  # gauge pressures below atmospheric are negative
+    elif value < 0:
+        raise InputError("value", f"a {kind} cannot be negative")
+    elif unit in _SUS_TEMP_F:
+        temp_f = _SUS_TEMP_F[unit] or temp_f
+        low, high = (saybolt_seconds(kv, temp_f) for kv in (SUS_KV_MIN_CST, SUS_KV_MAX_CST))
+        if not low <= value <= high:
+            raise InputError("value", f"ASTM D2161 covers {low:.1f} to {high:.4g} SUS at this "
+                                      f"temperature ({SUS_KV_MIN_CST} to {SUS_KV_MAX_CST:g} cSt)")
+
+
+def _to_base(value: float, unit: str, temp_f: float) -> float:
+    if unit == "c":
+        return value
+    if unit == "f":
+        return fahrenheit_to_celsius(value)
+    if unit in _SUS_TEMP_F:
+        return kinematic_from_saybolt(value, _SUS_TEMP_F[unit] or temp_f)
+    return value * _FACTOR[unit]
+
+
+def _from_base(base: float, unit: str, temp_f: float) -> float:
+    if unit == "c":
+        return base
+    if unit == "f":
+        return celsius_to_fahrenheit(base)
+    if unit in _SUS_TEMP_F:
+        if not SUS_KV_MIN_CST <= base <= SUS_KV_MAX_CST:
+            raise InputError("value", f"ASTM D2161 covers {SUS_KV_MIN_CST} to "
+                                      f"{SUS_KV_MAX_CST:g} cSt, not {base:.4g} cSt")
+        return saybolt_seconds(base, _SUS_TEMP_F[unit] or temp_f)
+    return base / _FACTOR[unit]
+
+
+def convert(value: float, from_unit: str, to_unit: str, temp_c: float = 37.77777777777778) -> float:
+    """`value` in `from_unit` expressed in `to_unit` (keys of UNIT_CHOICES).
+
+    `temp_c` [degC] is the temperature of a Saybolt reading for "sus_at_temp".
+
+    >>> round(convert(1.0, "bar", "psi"), 4)
+    14.5038
+    >>> round(convert(1.0, "atm", "bar"), 12)
+    1.01325
+    """
+    if _KIND[from_unit] != _KIND[to_unit]:
+        raise InputError("to_unit", f"{_LABELS[to_unit]} is a unit of {_KIND[to_unit]}, "
+                                    f"{_LABELS[from_unit]} one of {_KIND[from_unit]}: pick a "
+                                    f"{_KIND[from_unit]} unit to convert to")
+    temp_f = celsius_to_fahrenheit(temp_c)
+    _check_value(value, from_unit, temp_f)
+    return _from_base(_to_base(value, from_unit, temp_f), to_unit, temp_f)
+
+
+def _plain(value: float) -> str:
+    """Six significant figures without trailing zeros: "46", "14.5038"."""
+    text = units.format_number(value, 6)
+    return text.rstrip("0").rstrip(".") if "." in text else text
+
+
+@tool(
+    "unit-convert",
+    title="Unit converter",
+    summary="Temperature, pressure, volume, flow, power, ppm and %, and cSt to Saybolt seconds "
+            "(ASTM D2161) and back.",
+    topic=UNITS,
+    inputs=(
+        Field("value", "Value", "ratio", 46.0, min=-1.0e9, max=1.0e9),
+        Field("from_unit", "From", "choice", "cst", choices=UNIT_CHOICES),
+        Field("to_unit", "To", "choice", "sus_100f", choices=UNIT_CHOICES),
+        Field("temp", "Temperature of the Saybolt reading", "temperature", 37.77777777777778,
+              min=-20.0, max=200.0, help="Only for “SUS at the temperature entered”."),
+    ),
+    outputs=(
+        Output("converted", "Converted value", "ratio", "In the unit picked under “To”."),
+        Output("text", "Conversion", "text", headline=True),
+    ),
+)
+def unit_convert(value: float, from_unit: str, to_unit: str, temp: float) -> Result:
+    """One conversion between two units of the same kind."""
+    converted = convert(value, from_unit, to_unit, temp)
+    shown = f"{_plain(value)} {_LABELS[from_unit]} = {_plain(converted)} {_LABELS[to_unit]}"
+    result = Result(values={"converted": converted, "text": shown})
+    kinds = {_KIND[from_unit], _KIND[to_unit]}
+    sus = {from_unit, to_unit} & set(_SUS_TEMP_F)
+    if sus:
+        result.sources.append("ASTM D2161 (Saybolt Universal Seconds; equations from memory of "
+                              "the standard, checked against chemicals.viscosity)")
+        if "sus_at_temp" in sus:
+            result.note("Saybolt seconds at {0}: the 100 °F value times (1 + 0.000061 (t - 100)), "
+                        "t in °F (ASTM D2161).", Q(temp, "temperature"))
+    if "pressure" in kinds:
+        result.note("Gauge stays gauge and absolute stays absolute: the conversion does not add "
+                    "the atmosphere.")
+    if "concentration" in kinds:
+        result.note("ppm and % are both by mass here (1 % = 10 000 ppm); water sensors that "
+                    "report % saturation use another scale.")
+    result.sources.append("NIST SP 811 (2008), appendix B: exact factors (1 atm = 1.01325 bar, "
+                          "1 US gal = 3.785411784 L, 1 psi = 0.0689476 bar, 1 hp = 0.7457 kW)")
+    return result

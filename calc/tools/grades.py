@@ -1,0 +1,319 @@
+"""ISO VG grades in the field: which grade a reading is, and which grade a machine needs.
+
+`viscosity-grade` classifies a measured viscosity by ISO 3448 (calc.iso3448),
+tracing a reading taken at another temperature back to 40 °C along the oil's
+ASTM D341 line, whose KV100 follows from the oil's VI by ASTM D2270; it flags a
+wrong or mixed oil against the grade that should be in the tank.
+
+`grade-selector` tries each grade at a set of VIs against the pump's viscosity
+window between the coldest start and the hottest steady temperature.
+
+Sources: ISO 3448:1992 Table 1; ASTM D2270-10; ASTM D341-09. The 10 % rule for a
+wrong or mixed oil and the pump windows are common practice.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..kernel.errors import InputError
+from ..methods.iso3448 import (GRADE_CHOICES, ISO_VG_GRADES, grade_containing, grade_limits,
+                      grade_midpoint, nearest_grade, neighbours)
+from ..kernel.registry import VISCOSITY, Field, Output, tool
+from ..kernel.result import COMMON_PRACTICE, Q, Result
+from ..kernel.solve import bracket
+from .vi import find_root, kv40_from_vi, kv100_from_vi, KV100_MIN_CST
+from .viscosity import (PUMP_FIELDS, note_preset_limits, pump_window, walther_fit,
+                        walther_viscosity, window_text)
+
+_KV = "kinematic_viscosity"
+_T = "temperature"
+_PCT = "percent"
+
+# Common practice: a KV40 more than 10 % off the mid-point of the grade that should be in the
+# tank is a finding (the ISO 3448 band is +-10 %).
+WRONG_OIL_PERCENT = 10.0
+
+
+def kv40_from_reading(kv_cst: float, temp_c: float, vi: float) -> tuple[float, float]:
+    """(KV40, KV100) [cSt] of the oil of viscosity index `vi` that reads `kv_cst` [cSt] at
+    `temp_c` [degC].
+
+    The oil's D341 line through (40 °C, KV40) and (100 °C, KV100) must pass through the
+    reading, and (KV40, KV100) must have the given VI by ASTM D2270: solved for KV100.
+    InputError naming "kv" when no oil in D2270's range (KV100 >= 2 cSt) fits.
+
+    >>> [round(v, 2) for v in kv40_from_reading(20.62, 60.0, 100.0)]
+    [46.16, 6.77]
+    """
+    if temp_c == 40.0:
+        try:
+            return kv_cst, kv100_from_vi(kv_cst, vi)
+        except InputError as err:
+            raise InputError("kv" if err.field == "kv40" else err.field, err.message) from None
+
+    def excess(kv100: float) -> float:
+        a, b = walther_fit(40.0, kv40_from_vi(kv100, vi), 100.0, kv100)
+        return walther_viscosity(temp_c, a, b) - kv_cst
+
+    top = 1.0e4
+    if excess(KV100_MIN_CST) > 0.0:
+        raise InputError("kv", "too thin to classify: an oil of this VI reading that low would "
+                               "have KV100 below 2 cSt, outside ASTM D2270")
+    if excess(top) < 0.0:
+        raise InputError("kv", "too thick to trace back to 40 °C (KV100 above 10 000 cSt)")
+    kv100 = find_root(excess, KV100_MIN_CST, top)
+    return kv40_from_vi(kv100, vi), kv100
+
+
+EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
+
+
+@tool(
+    "viscosity-grade",
+    title="Viscosity grade check",
+    summary="The ISO VG grade of a measured viscosity, also from a reading at another "
+            "temperature, and whether it is the oil that should be in the tank.",
+    topic=VISCOSITY,
+    inputs=(
+        Field("kv", "Measured viscosity", _KV, 48.0, min=0.5, max=1.0e5,
+              help="Kinematic viscosity from the lab report or a field viscometer."),
+        Field("temp", "Temperature of the reading", _T, 40.0, min=-30.0, max=150.0,
+              help="40 °C for a standard KV40. Any other temperature is traced back to 40 °C."),
+        Field("vi", "Viscosity index of the oil", "vi", 100.0, min=-100.0, max=400.0,
+              help="From the data sheet; used only when the reading is not at 40 °C."),
+        Field("grade", "Grade that should be in the tank", "choice", "VG 46",
+              choices=EXPECTED_CHOICES),
+    ),
+    outputs=(
+        Output("kv40", "Viscosity at 40 °C", _KV, headline=True, tracks="kv40"),
+        Output("kv100", "Viscosity at 100 °C (from the VI)", _KV),
+        Output("nearest", "Nearest ISO grade", "text"),
+        Output("off_nearest", "Off that grade's mid-point", _PCT),
+        Output("band", "ISO 3448 band", "text", "The grade whose ±10 % band holds the "
+                                                 "reading, or the two grades it falls between.", headline=True),
+        Output("off_expected", "Off the expected grade's mid-point", _PCT),
+    ),
+)
+def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
+    """ISO 3448 grade of a reading, and the wrong-oil check against the expected grade."""
+    kv40, kv100 = kv40_from_reading(kv, temp, vi)
+    name, off = nearest_grade(kv40)
+    inside = grade_containing(kv40)
+    if inside:
+        band = f"inside {inside}"
+    else:
+        lower, upper = neighbours(kv40)
+        band = (f"between {lower} and {upper}" if lower and upper
+                else f"outside ISO 3448 ({'below VG 2' if upper else 'above VG 3200'})")
+    off_expected = None if grade == "none" else 100.0 * (kv40 / grade_midpoint(grade) - 1.0)
+    result = Result(values={"kv40": kv40, "kv100": kv100, "nearest": name, "off_nearest": off,
+                            "band": band, "off_expected": off_expected})
+    if off_expected is not None:
+        _wrong_oil_verdict(result, kv40, grade, off_expected)
+    if not inside:
+        result.note("The reading is in none of the ISO 3448 bands: a mix of two grades, an oil "
+                    "that has thickened or thinned in service, or an oil not sold by ISO grade.")
+    if temp != 40.0:
+        result.note(f"The reading at {{0}} was traced back to {{1}} assuming VI {vi:g}; a wrong "
+                    "VI shifts the answer more the farther the reading is from {1}. A lab KV40 "
+                    "settles it.", Q(temp, _T), Q(40.0, _T))
+    result.note("Take samples at normal running temperature from a sample valve, with gloves and "
+                "eye protection: hot oil burns and oil under pressure can pierce skin. Keep used "
+                "oil and sample bottles for proper disposal.")
+    result.sources += ["ISO 3448:1992, Table 1 (grades, ±10 % limits)"]
+    if temp != 40.0:
+        result.sources += ["ASTM D2270-10 (KV100 from VI)", "ASTM D341-09 (line to 40 °C)"]
+    result.sources.append("Wrong / mixed oil at more than 10 % off the mid-point: common practice")
+    return result
+
+
+def _wrong_oil_verdict(result: Result, kv40: float, grade: str, off: float) -> None:
+    low, high = grade_limits(grade)
+    if abs(off) <= WRONG_OIL_PERCENT:
+        result.add("ok", COMMON_PRACTICE,
+                   f"At {{0}} the oil is within 10 % of the mid-point of {grade} ({{1}} to {{2}}): "
+                   "consistent with the right oil.", Q(kv40, _KV), Q(low, _KV), Q(high, _KV))
+        return
+    if off > 0:
+        cause = ("a heavier oil may have been topped up, or the oil has thickened (oxidation, "
+                 "water, sludge)")
+    else:
+        cause = ("a lighter oil may have been topped up, or the oil has thinned (solvent or "
+                 "fuel dilution, shear of the VI improver)")
+    side = "above" if off > 0 else "below"
+    result.add("act", COMMON_PRACTICE,
+               f"At {{0}} the oil is {{1}} {side} the mid-point of {grade}: {cause}. Check the "
+               "top-up records, take a fresh sample from the same point, and send it to the lab "
+               "before draining or changing anything.", Q(kv40, _KV), Q(abs(off), _PCT))
+
+
+# --- grade selector ----------------------------------------------------------------------
+
+VI_SETS = {
+    "common": (95.0, 100.0, 120.0, 140.0, 160.0, 200.0),
+    "sweep": tuple(float(v) for v in range(90, 251, 10)),
+}
+VI_SET_CHOICES = (("common", "VI 95, 100, 120, 140, 160, 200"),
+                  ("sweep", "VI 90 to 250 in steps of 10"))
+GRADE_SETS = {
+    # Common practice: hydraulic oils are sold from VG 10 to VG 150.
+    "hydraulic": tuple(g[0] for g in ISO_VG_GRADES if 10.0 <= g[1] <= 150.0),
+    "all": tuple(g[0] for g in ISO_VG_GRADES),
+}
+GRADE_SET_CHOICES = (("hydraulic", "Hydraulic grades, VG 10 to VG 150"),
+                     ("all", "All ISO grades, VG 2 to VG 3200"))
+
+
+def grade_at_temperatures(grade: str, vi: float, cold_c: float, hot_c: float) -> tuple[float, float]:
+    """Viscosity [cSt] of ISO `grade` (mid-point) of viscosity index `vi` at `cold_c` and
+    `hot_c` [degC], on its D341 line; InputError when the grade has no such VI.
+
+    >>> [round(v, 1) for v in grade_at_temperatures("VG 46", 100.0, 0.0, 60.0)]
+    [584.9, 20.6]
+    """
+    kv40 = grade_midpoint(grade)
+    a, b = walther_fit(40.0, kv40, 100.0, kv100_from_vi(kv40, vi))
+    return walther_viscosity(cold_c, a, b), walther_viscosity(hot_c, a, b)
+
+
+def fit_status(kv_cold: float, kv_hot: float, window: tuple[float, float, float, float]) -> str:
+    """"fit", or why not: "thick_cold" (above the start-up maximum when cold), "thin" (below
+    the optimum band when hot), "thick_hot" (still above the optimum band when hot).
+
+    >>> fit_status(500.0, 20.0, (700.0, 40.0, 16.0, 10.0))
+    'fit'
+    """
+    start_max, opt_high, opt_low, _ = window
+    if kv_cold > start_max:
+        return "thick_cold"
+    if kv_hot < opt_low:
+        return "thin"
+    if kv_hot > opt_high:
+        return "thick_hot"
+    return "fit"
+
+
+def _status(grade: str, vi: float, cold_c: float, hot_c: float, window) -> tuple[str, float, float]:
+    try:
+        kv_cold, kv_hot = grade_at_temperatures(grade, vi, cold_c, hot_c)
+    except InputError:
+        return "undefined", 0.0, 0.0
+    return fit_status(kv_cold, kv_hot, window), kv_cold, kv_hot
+
+
+def minimum_vi(grade: str, cold_c: float, hot_c: float, window, fits_at: float,
+               floor: float = 0.0) -> float:
+    """The least VI (not below `floor`) at which `grade` fits, given that it fits at `fits_at`.
+
+    Bisection between `floor` and `fits_at`, to 0.01 VI.
+
+    >>> round(minimum_vi("VG 46", 0.0, 60.0, (700.0, 40.0, 16.0, 10.0), 95.0), 1)
+    75.6
+    """
+    def fits(vi: float) -> bool:
+        return _status(grade, vi, cold_c, hot_c, window)[0] == "fit"
+    if fits(floor):
+        return floor
+    return bracket(fits, floor, fits_at, x_tol=0.01, rel_tol=0.0)[1]  # the end that fits
+
+
+_WHY = {
+    "thick_cold": "too thick to start at {0}: {1} at VI {vi}, above the start-up maximum "
+                  "of {2}",
+    "thin": "too thin at {3}: {4} at VI {vi}, below the optimum band",
+    "too_thin": "too thin at {3}: {4} at VI {vi}, below the pump's minimum of {5}",
+    "thick_hot": "heavier than needed: at {3} still {4} at VI {vi}, above the optimum band",
+    "undefined": "has no oil at these VIs (its KV100 would be below 2 cSt, outside ASTM D2270)",
+}
+
+
+@tool(
+    "grade-selector",
+    title="Grade selector",
+    summary="Which ISO VG grades, at which viscosity index, keep the oil inside the pump's "
+            "window from the coldest start to the hottest steady running.",
+    topic=VISCOSITY,
+    inputs=(
+        Field("temp_cold", "Coldest start-up temperature", _T, 0.0, min=-50.0, max=100.0,
+              help="Oil temperature at the coldest start: the tank on a winter morning."),
+        Field("temp_hot", "Hottest steady temperature", _T, 60.0, min=-20.0, max=150.0,
+              help="Oil temperature in the tank at full load on the hottest day."),
+        *PUMP_FIELDS,
+        Field("vi_set", "VIs to try", "choice", "common", choices=VI_SET_CHOICES),
+        Field("grades", "Grades to try", "choice", "hydraulic", choices=GRADE_SET_CHOICES),
+    ),
+    outputs=(
+        Output("best_grade", "Best grade", "text", headline=True),
+        Output("best_vi", "Least VI it needs", "vi",
+               "Below this VI the grade leaves the pump's window.", headline=True),
+        Output("vi_pick", "Lowest VI tried that fits", "vi"),
+        Output("kv_cold", "Its viscosity at the coldest start", _KV),
+        Output("kv_hot", "Its viscosity at the hottest steady temperature", _KV),
+        Output("fits", "Grades that fit", "text"),
+        Output("window", "Pump window used", "text"),
+    ),
+)
+def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, grades: str,
+                   visc_start: float | None = None, visc_opt_high: float | None = None,
+                   visc_opt_low: float | None = None, visc_min: float | None = None) -> Result:
+    """Grades and VIs that keep the oil in the pump's window from `temp_cold` to `temp_hot`."""
+    if temp_hot <= temp_cold:
+        raise InputError("temp_hot", "the hottest steady temperature must be above the coldest "
+                                     "start-up temperature")
+    window = pump_window(pump, visc_start, visc_opt_high, visc_opt_low, visc_min)
+    start_max, opt_high, opt_low, minimum = window
+    vis = VI_SETS[vi_set]
+    table = {g: [(vi, *_status(g, vi, temp_cold, temp_hot, window)) for vi in vis]
+             for g in GRADE_SETS[grades]}
+    fitting = {g: [row for row in rows if row[1] == "fit"] for g, rows in table.items()}
+    fitting = {g: rows for g, rows in fitting.items() if rows}
+
+    def least_vi(g: str) -> float:
+        first = fitting[g][0][0]
+        below = [vi for vi in vis if vi < first]
+        return minimum_vi(g, temp_cold, temp_hot, window, first, below[-1] if below else 0.0)
+
+    least = {g: least_vi(g) for g in fitting}
+    fits_text = "; ".join(f"{g}: VI {', '.join(f'{r[0]:g}' for r in rows)}"
+                          for g, rows in fitting.items()) or "none"
+    result = Result(values={"best_grade": "none", "best_vi": None, "vi_pick": None,
+                            "kv_cold": None, "kv_hot": None, "fits": fits_text,
+                            "window": window_text(window)})
+    cold_q, hot_q = Q(temp_cold, _T), Q(temp_hot, _T)
+    if fitting:
+        # Lowest VI needed first (high-VI oils cost more and lose VI by shear); then the grade
+        # whose hot viscosity sits nearest the middle of the optimum band.
+        centre = (opt_high * opt_low) ** 0.5
+        best = min(fitting, key=lambda g: (round(least[g], 6),
+                                           abs(math.log(fitting[g][0][3] / centre))))
+        vi_pick, _, kv_cold, kv_hot = fitting[best][0]
+        result.values.update(best_grade=best, best_vi=least[best], vi_pick=vi_pick,
+                             kv_cold=kv_cold, kv_hot=kv_hot)
+        result.add("ok", COMMON_PRACTICE,
+                   f"{best} at VI {vi_pick:g} fits: {{0}} at the coldest start of {{1}} "
+                   "(start-up limit {2}) and {3} at {4}, inside the optimum band.",
+                   Q(kv_cold, _KV), cold_q, Q(start_max, _KV), Q(kv_hot, _KV), hot_q)
+    else:
+        result.add("act", COMMON_PRACTICE,
+                   "No grade tried keeps the oil inside the pump's window from {0} to {1}: heat "
+                   "the tank before start-up, improve cooling, or ask the pump maker for its "
+                   "limits.", cold_q, hot_q)
+    for g, rows in table.items():
+        if g in fitting:
+            continue
+        # The highest VI is the kindest to a cold start and a hot film; unless the grade is then
+        # too thick when hot, in which case the lowest VI is the kindest.
+        pick = rows[-1] if rows[-1][1] != "thick_hot" else rows[0]
+        reason = "too_thin" if pick[1] == "thin" and pick[3] < minimum else pick[1]
+        why = _WHY[reason].replace("{vi}", f"{pick[0]:g}")
+        result.note(f"{g} {why}.", cold_q, Q(pick[2], _KV), Q(start_max, _KV), hot_q,
+                    Q(pick[3], _KV), Q(minimum, _KV))
+    result.note("Below the oil's pour point the D341 line no longer holds: check the data "
+                "sheet's pour point against the coldest start. High-VI oils thickened with "
+                "polymers lose some VI in service; leave a margin.")
+    note_preset_limits(result, visc_start, visc_opt_high, visc_opt_low, visc_min)
+    result.sources += ["ISO 3448:1992 (grade mid-points)", "ASTM D2270-10 (KV100 from VI)",
+                       "ASTM D341-09 (viscosity at temperature)",
+                       "Pump window and grade choice: common practice"]
+    return result

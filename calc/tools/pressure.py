@@ -1,0 +1,152 @@
+"""Viscosity under pressure: the Barus relation.
+
+An oil thickens when it is squeezed. Barus's relation puts the rise as an exponential of
+the pressure above the reference (atmospheric) pressure:
+
+    eta_p = eta_0 exp(alpha p)
+
+with alpha the pressure-viscosity coefficient [1/bar]. From two readings r1, r2 of anything
+proportional to viscosity (a falling-ball time, a capillary flow time, a viscosity) at two
+pressures p1, p2 the coefficient is
+
+    alpha = ln(r2 / r1) / (p2 - p1)
+
+Source: C. Barus, "Isothermals, isopiestics and isometrics relative to viscosity",
+American Journal of Science 45 (1893) 87-96 (from memory). Typical mineral-oil
+coefficients 1.5e-3 to 2.5e-3 1/bar (15 to 25 1/GPa), and the overestimate above a few
+thousand bar: from memory.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..kernel.errors import InputError
+from ..kernel.registry import VISCOSITY, Field, Output, tool
+from ..kernel.result import FROM_MEMORY, Q, Result
+
+_KV = "kinematic_viscosity"
+_P = "pressure"
+_ALPHA = "per_bar"
+
+# Typical pressure-viscosity coefficients of mineral oils [1/bar], from memory.
+MINERAL_ALPHA_PER_BAR = (1.5e-3, 2.5e-3)
+# Above about this pressure [bar] Barus overestimates the rise (from memory: "a few thousand bar").
+BARUS_RELIABLE_BAR = 3000.0
+# Accepted range of the coefficient [1/bar]: beyond 1e-2 (100 1/GPa) no oil is known.
+ALPHA_MIN_PER_BAR = 1.0e-5
+ALPHA_MAX_PER_BAR = 1.0e-2
+PRESSURE_MAX_BAR = 10000.0
+
+
+def barus_factor(alpha_per_bar: float, pressure_bar: float) -> float:
+    """Factor by which viscosity rises at `pressure_bar` above the reference pressure.
+
+    eta_p / eta_0 = exp(alpha p)
+
+    >>> round(barus_factor(2.0e-3, 350.0), 4)
+    2.0138
+
+    Source: Barus (1893).
+    """
+    return math.exp(alpha_per_bar * pressure_bar)
+
+
+def barus_alpha(p1_bar: float, reading1: float, p2_bar: float, reading2: float) -> float:
+    """Pressure-viscosity coefficient [1/bar] from two readings proportional to viscosity.
+
+    alpha = ln(r2 / r1) / (p2 - p1); r may be viscosities, falling-ball times or flow times.
+
+    >>> round(barus_alpha(0.0, 1.0, 500.0, math.e), 6)
+    0.002
+
+    Source: Barus (1893), solved for alpha.
+    """
+    return math.log(reading2 / reading1) / (p2_bar - p1_bar)
+
+
+def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> float:
+    if abs(p2 - p1) < 1.0:
+        raise InputError("p2", "the two readings must be at least 1 bar (14.5 psi) apart")
+    (p_low, r_low), (p_high, r_high) = sorted(((p1, reading1), (p2, reading2)))
+    high_key = "reading2" if p2 > p1 else "reading1"
+    if r_high <= r_low:
+        raise InputError(high_key, "the reading at the higher pressure must be the larger: an "
+                                   "oil thickens under pressure")
+    alpha = barus_alpha(p_low, r_low, p_high, r_high)
+    if alpha > ALPHA_MAX_PER_BAR:
+        raise InputError(high_key, "the two readings rise faster than any oil does (more than "
+                                   "a factor e every 100 bar): check the readings and pressures")
+    return alpha
+
+
+@tool(
+    "viscosity-pressure",
+    title="Viscosity under pressure",
+    summary="How much thicker the oil is at pressure (Barus), with the coefficient entered or "
+            "fitted from two readings at two pressures.",
+    topic=VISCOSITY,
+    inputs=(
+        Field("kv", "Viscosity at atmospheric pressure", _KV, 46.0, min=0.5, max=1.0e5,
+              help="At the working temperature."),
+        Field("pressure", "Pressure", _P, 350.0, min=0.0, max=PRESSURE_MAX_BAR,
+              help="Gauge pressure, above atmospheric."),
+        Field("alpha_from", "Pressure-viscosity coefficient", "choice", "entered",
+              choices=(("entered", "Entered below"), ("fitted", "Fitted from two readings"))),
+        Field("alpha", "Coefficient", _ALPHA, 2.0e-3, min=ALPHA_MIN_PER_BAR,
+              max=ALPHA_MAX_PER_BAR, help="From the oil's data sheet; mineral oils are typically "
+                                          "0.0015 to 0.0025 1/bar (15 to 25 1/GPa)."),
+        Field("p1", "Pressure of reading 1", _P, 350.0 * 1.01325, min=0.0, max=PRESSURE_MAX_BAR,
+              help="Fitted only."),
+        Field("reading1", "Reading 1", "ratio", 8.0, min=1.0e-6, max=1.0e9,
+              help="Fitted only: a viscosity, a falling-ball time or a flow time; both readings "
+                   "in the same unit."),
+        Field("p2", "Pressure of reading 2", _P, 700.0 * 1.01325, min=0.0, max=PRESSURE_MAX_BAR,
+              help="Fitted only."),
+        Field("reading2", "Reading 2", "ratio", 14.0, min=1.0e-6, max=1.0e9, help="Fitted only."),
+    ),
+    outputs=(
+        Output("kv_p", "Viscosity at pressure", _KV,
+               "The atmospheric viscosity times the rise factor.", headline=True),
+        Output("factor", "Rise factor", "ratio", "Viscosity at pressure over viscosity at "
+                                                  "atmospheric pressure."),
+        Output("alpha_used", "Coefficient used", _ALPHA),
+    ),
+)
+def viscosity_pressure(kv: float, pressure: float, alpha_from: str, alpha: float, p1: float,
+                       reading1: float, p2: float, reading2: float) -> Result:
+    """Viscosity at `pressure` [bar gauge] by Barus, alpha entered or fitted from two readings."""
+    if alpha_from == "fitted":
+        alpha = _fitted_alpha(p1, reading1, p2, reading2)
+    factor = barus_factor(alpha, pressure)
+    result = Result(values={"kv_p": kv * factor, "factor": factor, "alpha_used": alpha})
+    low, high = MINERAL_ALPHA_PER_BAR
+    if low <= alpha <= high:
+        result.add("ok", FROM_MEMORY,
+                   "The coefficient {0} is typical of mineral oil; at {1} the oil is about {2}.",
+                   Q(alpha, _ALPHA), Q(pressure, _P), Q(kv * factor, _KV))
+    else:
+        result.add("watch", FROM_MEMORY,
+                   "The coefficient {0} is outside the range typical of mineral oils ({1} to {2}): "
+                   "check the readings, or the fluid's data sheet (water glycols and many "
+                   "synthetics have lower values).", Q(alpha, _ALPHA), Q(low, _ALPHA), Q(high, _ALPHA))
+    if pressure > BARUS_RELIABLE_BAR:
+        result.add("watch", FROM_MEMORY,
+                   "Above about {0} the Barus relation overestimates the rise: treat {1} as an "
+                   "upper bound.", Q(BARUS_RELIABLE_BAR, _P), Q(kv * factor, _KV))
+    result.note("Typical mineral oils: {0} to {1} (15 to 25 1/GPa), from memory; the oil's own "
+                "data sheet takes precedence.", Q(low, _ALPHA), Q(high, _ALPHA))
+    result.note("What benefits is the thin film in loaded rolling bearings and gear teeth, where "
+                "contact pressures of thousands of bar thicken the oil enough to carry the load.")
+    result.note("Barus describes the dynamic viscosity; the oil's density also rises a little with "
+                "pressure, so the kinematic viscosity rises slightly less (a few % at {0}, from "
+                "memory).", Q(350.0, _P))
+    if alpha_from == "fitted":
+        result.note("Readings at pressure need a rig rated for it: oil escaping under pressure "
+                    "can pierce the skin (injection injury, get medical help at once); relieve "
+                    "pressure before opening anything.")
+    result.sources += ["Barus relation eta_p = eta_0 exp(alpha p): C. Barus, Am. J. Sci. 45 (1893), "
+                       "from memory",
+                       "Typical coefficients of mineral oils and the limit of the relation: from "
+                       "memory"]
+    return result
