@@ -10,6 +10,7 @@ from __future__ import annotations
 from ..kernel.grading import Band
 from ..kernel.registry import Field, Output
 from ..kernel.result import Q, Result
+from ..methods.water import relative_saturation_pct
 from ..tools import water
 from .scoreboard import (AGAINST, MODERATE, READING_BASIS, STRONG, WEAK, Cause, Check,
                          Scoreboard, Symptom, checklist)
@@ -165,7 +166,7 @@ def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil):
     saturation = rh
     if rh is None and ppm is not None and temp is not None:
         line = water.saturation_line(oil)
-        saturation = water.relative_saturation_pct(ppm, temp, line.a, line.b)
+        saturation = relative_saturation_pct(ppm, temp, line.a, line.b)
     found.values["saturation"] = saturation
     if ppm is not None:
         if ppm >= LARGE_PPM:

@@ -60,3 +60,27 @@ def bisect(f: Callable[[float], float], low: float, high: float, *, x_tol: float
     low, high = bracket(lambda x: not f(x) < 0.0, low, high, x_tol=x_tol, rel_tol=rel_tol,
                         max_iter=max_iter)
     return 0.5 * (low + high)
+
+
+def find_root(f, lo: float, hi: float, steps: int = 400) -> float | None:
+    """The first x in [lo, hi] (lo, hi > 0) where f(x) crosses from negative to >= 0.
+
+    Brackets the crossing on a geometric grid of `steps` points, then bisects to
+    machine precision; None when f never reaches 0 in the range. Robust where f is
+    piecewise (as D2270's interpolated table is) or not monotonic.
+
+    >>> round(find_root(lambda x: x * x - 2.0, 1.0, 10.0), 12)
+    1.414213562373
+    """
+    ratio = (hi / lo) ** (1.0 / steps)
+    left = lo
+    if f(left) >= 0.0:
+        return left
+    for k in range(1, steps + 1):
+        right = hi if k == steps else lo * ratio ** k
+        if f(right) >= 0.0:
+            break
+        left = right
+    else:
+        return None
+    return bisect(f, left, right, rel_tol=1e-14, max_iter=200)

@@ -173,9 +173,17 @@ def parse_number(text: object, field: str) -> float:
 
 
 def show(value: float | None, quantity_name: str, system: str) -> str:
-    """A metric value as a person reads it in `system`: "20.6 cSt", "141 °F"."""
+    """A metric value as a person reads it in `system`: "20.6 cSt", "141 °F".
+
+    A "text" quantity (a grade's name, a cause's title) is shown as it is.
+
+    >>> show(60.0, "temperature", "us"), show("VG 46", "text", "us")
+    ('140.0 °F', 'VG 46')
+    """
     if value is None:
         return "n/a"
+    if quantity_name == "text":
+        return str(value)
     q = quantity(quantity_name)
     shown = from_metric(value, quantity_name, system)
     text = f"{shown:.{q.decimals}f}" if q.decimals is not None else format_number(shown, q.digits)

@@ -1,35 +1,20 @@
-"""Blends and top-ups: the viscosity of a mix of oils, and how much of oil B reaches a target.
-
-Each oil's kinematic viscosity v [cSt] is turned into a viscosity blending number
-
-    VBN = 14.534 ln(ln(v + 0.8)) + 10.975
-
-which mixes linearly: VBN_mix = sum x_i VBN_i, with x_i the fraction of each part (by mass
-in the original method; by volume it is close for mineral oils of similar density). The mix's
-viscosity is the back-transform v = exp(exp((VBN - 10.975) / 14.534)) - 0.8. All viscosities
-must be at the same temperature; the result is at that temperature.
-
-Source: the Refutas blending number as given in R. E. Maples, "Petroleum Refinery Process
-Economics", 2nd ed., PennWell (2000), used in the practice of ASTM D7152 ("Calculating
-Viscosity of a Blend of Petroleum Products"), which also describes other blending methods
-(from memory of the standard).
+"""The blends and top-ups tool: the Refutas blending numbers of calc.methods.blend, judged
+against the ISO 3448 grade band.
 """
 
 from __future__ import annotations
 
-import math
-
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
+from ..methods.blend import (blend_viscosity, blending_number, drain_and_fill, top_up_fraction,
+                             top_up_volume)
 
 _KV = "kinematic_viscosity"
 _PCT = "percent"
 _VOL = "volume"
 
-# Refutas constants (Maples 2000).
-VBN_SLOPE = 14.534
-VBN_OFFSET = 10.975
 
 # Range the tool accepts [cSt]: lubricating and hydraulic oils; ln(ln(v + 0.8)) needs v > 0.2.
 KV_MIN_CST = 1.0
@@ -41,83 +26,32 @@ ISO_3448_TOLERANCE = 0.10
 SMALL_CHANGE = 0.05
 # Common practice: more than about a tenth of another oil makes the tank a mixed oil.
 MIXED_OIL_SHARE = 0.10
+ISO_3448_BASIS = "ISO 3448 (grade tolerance ±10 % of mid-point)"
 
-PARTS = 4
-
-
-def blending_number(kv_cst: float) -> float:
-    """Refutas viscosity blending number of a kinematic viscosity [cSt].
-
-    VBN = 14.534 ln(ln(v + 0.8)) + 10.975
-
-    >>> round(blending_number(46.0), 3)
-    30.552
-
-    Source: Maples (2000), the Refutas equation.
-    """
-    return VBN_SLOPE * math.log(math.log(kv_cst + 0.8)) + VBN_OFFSET
-
-
-def viscosity_from_blending_number(vbn: float) -> float:
-    """Kinematic viscosity [cSt] whose Refutas blending number is `vbn`.
-
-    v = exp(exp((VBN - 10.975) / 14.534)) - 0.8
-
-    >>> round(viscosity_from_blending_number(blending_number(68.0)), 9)
-    68.0
-    """
-    return math.exp(math.exp((vbn - VBN_OFFSET) / VBN_SLOPE)) - 0.8
-
-
-def blend_viscosity(kvs_cst: list[float], amounts: list[float]) -> float:
-    """Kinematic viscosity [cSt] of a mix of oils with viscosities `kvs_cst` at one temperature.
-
-    `amounts` are the parts of each oil in any one unit (litres, kg, %); they are
-    normalised to fractions x_i, and VBN_mix = sum x_i VBN_i.
-
-    >>> round(blend_viscosity([46.0, 68.0], [50.0, 50.0]), 2)
-    55.68
-
-    Source: ASTM D7152 practice with the Refutas blending number (Maples 2000).
-    """
-    total = sum(amounts)
-    vbn = sum(a * blending_number(kv) for kv, a in zip(kvs_cst, amounts)) / total
-    return viscosity_from_blending_number(vbn)
-
-
-def top_up_fraction(kv_a_cst: float, kv_b_cst: float, target_cst: float) -> float:
-    """Fraction of oil B in a mix of A and B that has viscosity `target_cst` [cSt].
-
-    x_B = (VBN_target - VBN_A) / (VBN_B - VBN_A); the target must lie between A and B.
-
-    >>> round(top_up_fraction(46.0, 68.0, blend_viscosity([46.0, 68.0], [3.0, 1.0])), 12)
-    0.25
-    """
-    vbn_a = blending_number(kv_a_cst)
-    return (blending_number(target_cst) - vbn_a) / (blending_number(kv_b_cst) - vbn_a)
-
-
-def top_up_volume(tank_l: float, fraction_b: float) -> float:
-    """Litres of oil B to add to `tank_l` litres of oil A so that B is `fraction_b` of the mix.
-
-    V_B = V_A x_B / (1 - x_B)
-
-    >>> top_up_volume(300.0, 0.25)
-    100.0
-    """
-    return tank_l * fraction_b / (1.0 - fraction_b)
-
-
-def drain_and_fill(tank_l: float, capacity_l: float, fraction_b: float) -> tuple[float, float]:
-    """(litres of A to drain, litres of B to fill) to reach `fraction_b` with a full tank.
-
-    With the tank filled to `capacity_l`: B = x_B C and the drain D = x_B C - (C - V_A).
-
-    >>> drain_and_fill(300.0, 320.0, 0.25)
-    (60.0, 80.0)
-    """
-    fill = fraction_b * capacity_l
-    return fill - (capacity_l - tank_l), fill
+# The mix against the main oil, by the fraction its viscosity moved.
+MIX_BANDS = (
+    Band("ok", "The mix is {mix}, within {change} of the main oil ({main}): the grade is "
+               "unchanged; log what was added and when.", at_most=SMALL_CHANGE,
+         basis=COMMON_PRACTICE),
+    Band("watch", "The mix is {mix}, {change} off the main oil ({main}): near the edge of the "
+                  "±10 % a grade allows; check the pump's viscosity window at the working "
+                  "temperature.", at_most=ISO_3448_TOLERANCE),
+    Band("act", "The mix is {mix}, {change} off the main oil ({main}): it is no longer that "
+                "grade; label the tank as mixed oil, check the pump's viscosity window, and plan "
+                "a drain and refill if the machine needs the original grade."),
+)
+# A top-up by the share of oil B in the tank afterwards (common practice).
+SHARE_BANDS = (
+    Band("watch", "Oil B will be {share} of the tank: it is now a mixed oil; label the tank, log "
+                  "both oils, and confirm with the oil supplier that their additive packages are "
+                  "compatible.", over=MIXED_OIL_SHARE),
+    Band("ok", "Oil B will be {share} of the tank, a small top-up; still confirm the two oils "
+               "are compatible if they are of different makes or types."),
+)
+DRAIN_BANDS = (  # common practice
+    Band("watch", "{add} of oil B does not fit: drain {drain} of oil A first, then fill {fill} of "
+                  "oil B to reach {target} with a full tank.", over=0.0),
+)
 
 
 def _kv_field(n: int, default: float | None) -> Field:
@@ -167,21 +101,8 @@ def _mix(result: Result, kvs: list[float | None], amounts: list[float | None], b
     result.values.update(kv_mix=kv_mix, vbn=blending_number(kv_mix),
                          share_other=100.0 * (1.0 - used_amount[main] / total))
     change = kv_mix / kv_main - 1.0
-    at = (Q(kv_mix, _KV), Q(kv_main, _KV), Q(100.0 * abs(change), _PCT))
-    if abs(change) <= SMALL_CHANGE:
-        result.add("ok", COMMON_PRACTICE,
-                   "The mix is {0}, within {2} of the main oil ({1}): the grade is unchanged; "
-                   "log what was added and when.", *at)
-    elif abs(change) <= ISO_3448_TOLERANCE:
-        result.add("watch", "ISO 3448 (grade tolerance ±10 % of mid-point)",
-                   "The mix is {0}, {2} off the main oil ({1}): near the edge of the ±10 % a "
-                   "grade allows; check the pump's viscosity window at the working temperature.",
-                   *at)
-    else:
-        result.add("act", "ISO 3448 (grade tolerance ±10 % of mid-point)",
-                   "The mix is {0}, {2} off the main oil ({1}): it is no longer that grade; label "
-                   "the tank as mixed oil, check the pump's viscosity window, and plan a drain "
-                   "and refill if the machine needs the original grade.", *at)
+    result.grade(abs(change), MIX_BANDS, ISO_3448_BASIS, mix=Q(kv_mix, _KV), main=Q(kv_main, _KV),
+                 change=Q(100.0 * abs(change), _PCT))
     if basis == "volume":
         result.note("Amounts by volume: the blending numbers are defined on mass fractions; for "
                     "mineral oils of similar density the difference is small. Use mass for oils "
@@ -207,25 +128,13 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
         drain_l, add_l = drain_and_fill(tank_l, capacity_l, fraction_b)
     result.values.update(kv_mix=target, vbn=blending_number(target), top_up=add_l,
                          drain=drain_l, share_other=100.0 * fraction_b)
-    share = Q(100.0 * fraction_b, _PCT)
-    if drain_l > 0:
-        result.add("watch", COMMON_PRACTICE,
-                   "{0} of oil B does not fit: drain {1} of oil A first, then fill {2} of oil B "
-                   "to reach {3} with a full tank.",
-                   Q(top_up_volume(tank_l, fraction_b), _VOL), Q(drain_l, _VOL), Q(add_l, _VOL),
-                   Q(target, _KV))
+    if result.grade(drain_l, DRAIN_BANDS, COMMON_PRACTICE,
+                    add=Q(top_up_volume(tank_l, fraction_b), _VOL), drain=Q(drain_l, _VOL),
+                    fill=Q(add_l, _VOL), target=Q(target, _KV)):
         result.note("Before draining: stop the machine, lock out and relieve pressure (lower raised "
                     "loads, discharge accumulators); oil may be hot. Contain spills and dispose of "
                     "used oil as local rules require.")
-    if fraction_b > MIXED_OIL_SHARE:
-        result.add("watch", COMMON_PRACTICE,
-                   "Oil B will be {0} of the tank: it is now a mixed oil; label the tank, log both "
-                   "oils, and confirm with the oil supplier that their additive packages are "
-                   "compatible.", share)
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "Oil B will be {0} of the tank, a small top-up; still confirm the two oils are "
-                   "compatible if they are of different makes or types.", share)
+    result.grade(fraction_b, SHARE_BANDS, COMMON_PRACTICE, share=Q(100.0 * fraction_b, _PCT))
     result.note("Top-up by volume: the blending numbers are defined on mass fractions; for mineral "
                 "oils of similar density the difference is small.")
 

@@ -1,69 +1,42 @@
-"""Drying the oil: time for a dehydrator or a water-removing filter to reach a target content.
-
-A unit drawing `Q` from a well-mixed tank of `V` and removing the fraction `eta`
-of the water in each pass (single-pass efficiency) lowers the content as
-
-    V dC/dt = -eta Q C       so       C(t) = C0 exp(-eta Q t / V)
-
-and needs t = V / (eta Q) ln(C0 / C_target); the content halves every
-ln(2) V / (eta Q). The model assumes no new water gets in while drying and a
-constant efficiency; real units lose efficiency as the oil dries, so read the
-time as the least it will take.
-
-The usual target (common practice) keeps the content at most 50 % of the
-saturation at the coldest temperature the oil sees, so no free water ever drops
-out.
-
-Source: first-order (well-mixed tank) mass balance; target rule common practice.
+"""The drying-time tool: the well-mixed tank model of calc.methods.drying, with the target
+taken as 50 % of saturation at the coldest temperature (common practice) unless entered.
 """
 
 from __future__ import annotations
 
-import math
-
+from ..kernel.grading import Band
 from ..kernel.registry import WATER, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
+from ..methods.drying import drying_time_min, halving_time_min
+from ..methods.water import water_volume_ml
 from .water import (DRAIN_CAUTION, TARGET_FRACTION, note_coldest, note_unused_calibration,
                     oil_fields, reading_fields, reading_to_ppm, saturation_line, tank_fields,
-                    warn_outside, water_volume_ml)
+                    warn_outside)
 
 _PPM = "ppm"
 _T = "temperature"
 
-
-def well_mixed_content_ppm(c0_ppm: float, minutes: float, flow_lpm: float, efficiency_pct: float,
-                           volume_l: float) -> float:
-    """Water content [ppm] after `minutes` [min] of drying a well-mixed tank.
-
-    C(t) = C0 exp(-eta Q t / V), eta = efficiency_pct / 100, Q [L/min], V [L]
-
-    >>> round(well_mixed_content_ppm(400.0, 60.0, 20.0, 50.0, 600.0), 1)
-    147.2
-    """
-    return c0_ppm * math.exp(-efficiency_pct / 100.0 * flow_lpm * minutes / volume_l)
-
-
-def drying_time_min(c0_ppm: float, target_ppm: float, flow_lpm: float, efficiency_pct: float,
-                    volume_l: float) -> float:
-    """Minutes [min] to bring a well-mixed tank from `c0_ppm` to `target_ppm`; 0 if already there.
-
-    t = V / (eta Q) ln(C0 / C_target)
-
-    >>> round(drying_time_min(400.0, 100.0, 20.0, 50.0, 600.0), 1)
-    83.2
-    """
-    if c0_ppm <= target_ppm:
-        return 0.0
-    return volume_l / (efficiency_pct / 100.0 * flow_lpm) * math.log(c0_ppm / target_ppm)
-
-
-def halving_time_min(flow_lpm: float, efficiency_pct: float, volume_l: float) -> float:
-    """Minutes [min] in which a well-mixed tank's water content halves: ln(2) V / (eta Q).
-
-    >>> round(halving_time_min(20.0, 50.0, 600.0), 1)
-    41.6
-    """
-    return math.log(2.0) * volume_l / (efficiency_pct / 100.0 * flow_lpm)
+# Free water in the tank now: it is drained, not dried (common practice).
+FREE_NOW_BANDS = (
+    Band("act", "There is free water at {temp}: drain what has settled at the tank bottom first; "
+                "the drying time below counts on the unit taking the rest.", over="sat"),
+)
+# The time the unit must run: none, or some (common practice).
+DRYING_BANDS = (
+    Band("ok", "The oil is at {ppm}, already at or below the target of {target}: no drying "
+               "needed; keep breathers and seals tight.", at_most=0.0),
+    Band("watch", "Run the unit about {hours} (the tank through it {passes} times) to bring the "
+                  "oil from {ppm} to {target}; take a new reading then, because new water keeps "
+                  "coming in until the ingress is stopped."),
+)
+# An entered target against what the oil holds at its coldest (common practice).
+TARGET_BANDS = (
+    Band("act", "The target {target} is more than the oil holds dissolved at {cold} ({sat_cold}): "
+                "free water would still drop out when the oil is cold; aim for {usual} or less.",
+         over="sat_cold"),
+    Band("watch", "The target {target} is above 50 % of saturation at {cold} ({usual}): little "
+                  "margin before free water drops out when the oil is cold.", over="usual"),
+)
 
 
 def drying_target_ppm(sat_cold_ppm: float, fraction: float = TARGET_FRACTION) -> float:
@@ -125,33 +98,15 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
         "target_basis": ("50 % of saturation at the coldest temperature (common practice)"
                          if target_ppm is None else "entered"),
     })
-    free_now = content > line.saturation(temp)
-    if free_now:
-        result.add("act", COMMON_PRACTICE,
-                   "There is free water at {0}: drain what has settled at the tank bottom "
-                   "first; the drying time below counts on the unit taking the rest.", Q(temp, _T))
+    if result.grade(content, FREE_NOW_BANDS, COMMON_PRACTICE, temp=Q(temp, _T),
+                    sat=Q(line.saturation(temp), _PPM)):
         result.note(DRAIN_CAUTION)
-    if minutes == 0.0:
-        result.add("ok", COMMON_PRACTICE,
-                   "The oil is at {0}, already at or below the target of {1}: no drying needed; "
-                   "keep breathers and seals tight.", Q(content, _PPM), Q(target, _PPM))
-    else:
-        result.add("watch", COMMON_PRACTICE,
-                   "Run the unit about {0} (the tank through it {1} times) to bring the oil from "
-                   "{2} to {3}; take a new reading then, because new water keeps coming in "
-                   "until the ingress is stopped.",
-                   Q(minutes / 60.0, "hours"), Q(flow * minutes / volume, "ratio"),
-                   Q(content, _PPM), Q(target, _PPM))
-    if target_ppm is not None and target_ppm > sat_cold:
-        result.add("act", COMMON_PRACTICE,
-                   "The target {0} is more than the oil holds dissolved at {1} ({2}): free water "
-                   "would still drop out when the oil is cold; aim for {3} or less.",
-                   Q(target_ppm, _PPM), Q(temp_cold, _T), Q(sat_cold, _PPM), Q(usual, _PPM))
-    elif target_ppm is not None and target_ppm > usual:
-        result.add("watch", COMMON_PRACTICE,
-                   "The target {0} is above 50 % of saturation at {1} ({2}): little margin "
-                   "before free water drops out when the oil is cold.",
-                   Q(target_ppm, _PPM), Q(temp_cold, _T), Q(usual, _PPM))
+    result.grade(minutes, DRYING_BANDS, COMMON_PRACTICE, ppm=Q(content, _PPM),
+                 target=Q(target, _PPM), hours=Q(minutes / 60.0, "hours"),
+                 passes=Q(flow * minutes / volume, "ratio"))
+    if target_ppm is not None:
+        result.grade(target_ppm, TARGET_BANDS, COMMON_PRACTICE, target=Q(target_ppm, _PPM),
+                     cold=Q(temp_cold, _T), sat_cold=Q(sat_cold, _PPM), usual=Q(usual, _PPM))
     result.note("The time assumes a well-mixed tank, no new water and a constant efficiency. "
                 "Vacuum and air-stripping dehydrators take dissolved water; coalescing and "
                 "water-absorbing filters take mainly free water and slow down near saturation, "

@@ -17,14 +17,14 @@ from __future__ import annotations
 import math
 
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..methods.iso3448 import (GRADE_CHOICES, ISO_VG_GRADES, grade_containing, grade_limits,
                       grade_midpoint, nearest_grade, neighbours)
 from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 from ..kernel.solve import bracket
-from .vi import find_root, kv40_from_vi, kv100_from_vi, KV100_MIN_CST
-from .viscosity import (PUMP_FIELDS, note_preset_limits, pump_window, walther_fit,
-                        walther_viscosity, window_text)
+from ..methods.viscosity import grade_at_temperatures, kv40_from_reading
+from .viscosity import PUMP_FIELDS, note_preset_limits, pump_window, window_text
 
 _KV = "kinematic_viscosity"
 _T = "temperature"
@@ -33,37 +33,18 @@ _PCT = "percent"
 # Common practice: a KV40 more than 10 % off the mid-point of the grade that should be in the
 # tank is a finding (the ISO 3448 band is +-10 %).
 WRONG_OIL_PERCENT = 10.0
-
-
-def kv40_from_reading(kv_cst: float, temp_c: float, vi: float) -> tuple[float, float]:
-    """(KV40, KV100) [cSt] of the oil of viscosity index `vi` that reads `kv_cst` [cSt] at
-    `temp_c` [degC].
-
-    The oil's D341 line through (40 °C, KV40) and (100 °C, KV100) must pass through the
-    reading, and (KV40, KV100) must have the given VI by ASTM D2270: solved for KV100.
-    InputError naming "kv" when no oil in D2270's range (KV100 >= 2 cSt) fits.
-
-    >>> [round(v, 2) for v in kv40_from_reading(20.62, 60.0, 100.0)]
-    [46.16, 6.77]
-    """
-    if temp_c == 40.0:
-        try:
-            return kv_cst, kv100_from_vi(kv_cst, vi)
-        except InputError as err:
-            raise InputError("kv" if err.field == "kv40" else err.field, err.message) from None
-
-    def excess(kv100: float) -> float:
-        a, b = walther_fit(40.0, kv40_from_vi(kv100, vi), 100.0, kv100)
-        return walther_viscosity(temp_c, a, b) - kv_cst
-
-    top = 1.0e4
-    if excess(KV100_MIN_CST) > 0.0:
-        raise InputError("kv", "too thin to classify: an oil of this VI reading that low would "
-                               "have KV100 below 2 cSt, outside ASTM D2270")
-    if excess(top) < 0.0:
-        raise InputError("kv", "too thick to trace back to 40 °C (KV100 above 10 000 cSt)")
-    kv100 = find_root(excess, KV100_MIN_CST, top)
-    return kv40_from_vi(kv100, vi), kv100
+_CHECK_FIRST = (" Check the top-up records, take a fresh sample from the same point, and send it "
+                "to the lab before draining or changing anything.")
+WRONG_OIL_BANDS = (
+    Band("act", "At {kv40} the oil is {off} above the mid-point of {grade}: a heavier oil may "
+                "have been topped up, or the oil has thickened (oxidation, water, sludge)."
+                + _CHECK_FIRST, over=WRONG_OIL_PERCENT),
+    Band("act", "At {kv40} the oil is {off} below the mid-point of {grade}: a lighter oil may "
+                "have been topped up, or the oil has thinned (solvent or fuel dilution, shear of "
+                "the VI improver)." + _CHECK_FIRST, under=-WRONG_OIL_PERCENT),
+    Band("ok", "At {kv40} the oil is within 10 % of the mid-point of {grade} ({low} to {high}): "
+               "consistent with the right oil."),
+)
 
 
 EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
@@ -110,7 +91,10 @@ def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
     result = Result(values={"kv40": kv40, "kv100": kv100, "nearest": name, "off_nearest": off,
                             "band": band, "off_expected": off_expected})
     if off_expected is not None:
-        _wrong_oil_verdict(result, kv40, grade, off_expected)
+        low, high = grade_limits(grade)
+        result.grade(off_expected, WRONG_OIL_BANDS, COMMON_PRACTICE, kv40=Q(kv40, _KV),
+                     off=Q(abs(off_expected), _PCT), grade=Q(grade, "text"),
+                     low=Q(low, _KV), high=Q(high, _KV))
     if not inside:
         result.note("The reading is in none of the ISO 3448 bands: a mix of two grades, an oil "
                     "that has thickened or thinned in service, or an oil not sold by ISO grade.")
@@ -128,26 +112,6 @@ def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
     return result
 
 
-def _wrong_oil_verdict(result: Result, kv40: float, grade: str, off: float) -> None:
-    low, high = grade_limits(grade)
-    if abs(off) <= WRONG_OIL_PERCENT:
-        result.add("ok", COMMON_PRACTICE,
-                   f"At {{0}} the oil is within 10 % of the mid-point of {grade} ({{1}} to {{2}}): "
-                   "consistent with the right oil.", Q(kv40, _KV), Q(low, _KV), Q(high, _KV))
-        return
-    if off > 0:
-        cause = ("a heavier oil may have been topped up, or the oil has thickened (oxidation, "
-                 "water, sludge)")
-    else:
-        cause = ("a lighter oil may have been topped up, or the oil has thinned (solvent or "
-                 "fuel dilution, shear of the VI improver)")
-    side = "above" if off > 0 else "below"
-    result.add("act", COMMON_PRACTICE,
-               f"At {{0}} the oil is {{1}} {side} the mid-point of {grade}: {cause}. Check the "
-               "top-up records, take a fresh sample from the same point, and send it to the lab "
-               "before draining or changing anything.", Q(kv40, _KV), Q(abs(off), _PCT))
-
-
 # --- grade selector ----------------------------------------------------------------------
 
 VI_SETS = {
@@ -163,18 +127,6 @@ GRADE_SETS = {
 }
 GRADE_SET_CHOICES = (("hydraulic", "Hydraulic grades, VG 10 to VG 150"),
                      ("all", "All ISO grades, VG 2 to VG 3200"))
-
-
-def grade_at_temperatures(grade: str, vi: float, cold_c: float, hot_c: float) -> tuple[float, float]:
-    """Viscosity [cSt] of ISO `grade` (mid-point) of viscosity index `vi` at `cold_c` and
-    `hot_c` [degC], on its D341 line; InputError when the grade has no such VI.
-
-    >>> [round(v, 1) for v in grade_at_temperatures("VG 46", 100.0, 0.0, 60.0)]
-    [584.9, 20.6]
-    """
-    kv40 = grade_midpoint(grade)
-    a, b = walther_fit(40.0, kv40, 100.0, kv100_from_vi(kv40, vi))
-    return walther_viscosity(cold_c, a, b), walther_viscosity(hot_c, a, b)
 
 
 def fit_status(kv_cold: float, kv_hot: float, window: tuple[float, float, float, float]) -> str:

@@ -1,29 +1,14 @@
-"""Viscosity under pressure: the Barus relation.
-
-An oil thickens when it is squeezed. Barus's relation puts the rise as an exponential of
-the pressure above the reference (atmospheric) pressure:
-
-    eta_p = eta_0 exp(alpha p)
-
-with alpha the pressure-viscosity coefficient [1/bar]. From two readings r1, r2 of anything
-proportional to viscosity (a falling-ball time, a capillary flow time, a viscosity) at two
-pressures p1, p2 the coefficient is
-
-    alpha = ln(r2 / r1) / (p2 - p1)
-
-Source: C. Barus, "Isothermals, isopiestics and isometrics relative to viscosity",
-American Journal of Science 45 (1893) 87-96 (from memory). Typical mineral-oil
-coefficients 1.5e-3 to 2.5e-3 1/bar (15 to 25 1/GPa), and the overestimate above a few
-thousand bar: from memory.
+"""The viscosity-under-pressure tool: Barus's relation (calc.methods.pressure) with the
+coefficient entered or fitted from two readings.
 """
 
 from __future__ import annotations
 
-import math
-
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import FROM_MEMORY, Q, Result
+from ..methods.pressure import barus_alpha, barus_factor
 
 _KV = "kinematic_viscosity"
 _P = "pressure"
@@ -38,31 +23,21 @@ ALPHA_MIN_PER_BAR = 1.0e-5
 ALPHA_MAX_PER_BAR = 1.0e-2
 PRESSURE_MAX_BAR = 10000.0
 
-
-def barus_factor(alpha_per_bar: float, pressure_bar: float) -> float:
-    """Factor by which viscosity rises at `pressure_bar` above the reference pressure.
-
-    eta_p / eta_0 = exp(alpha p)
-
-    >>> round(barus_factor(2.0e-3, 350.0), 4)
-    2.0138
-
-    Source: Barus (1893).
-    """
-    return math.exp(alpha_per_bar * pressure_bar)
-
-
-def barus_alpha(p1_bar: float, reading1: float, p2_bar: float, reading2: float) -> float:
-    """Pressure-viscosity coefficient [1/bar] from two readings proportional to viscosity.
-
-    alpha = ln(r2 / r1) / (p2 - p1); r may be viscosities, falling-ball times or flow times.
-
-    >>> round(barus_alpha(0.0, 1.0, 500.0, math.e), 6)
-    0.002
-
-    Source: Barus (1893), solved for alpha.
-    """
-    return math.log(reading2 / reading1) / (p2_bar - p1_bar)
+# The coefficient against the range typical of mineral oils (from memory).
+_OUTSIDE = ("The coefficient {alpha} is outside the range typical of mineral oils ({low} to "
+            "{high}): check the readings, or the fluid's data sheet (water glycols and many "
+            "synthetics have lower values).")
+ALPHA_BANDS = (
+    Band("watch", _OUTSIDE, under="low"),
+    Band("watch", _OUTSIDE, over="high"),
+    Band("ok", "The coefficient {alpha} is typical of mineral oil; at {pressure} the oil is about "
+               "{kv_p}."),
+)
+# Where the relation itself stops being reliable (from memory).
+RELIABLE_BANDS = (
+    Band("watch", "Above about {reliable} the Barus relation overestimates the rise: treat "
+                  "{kv_p} as an upper bound.", over=BARUS_RELIABLE_BAR),
+)
 
 
 def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> float:
@@ -121,19 +96,11 @@ def viscosity_pressure(kv: float, pressure: float, alpha_from: str, alpha: float
     factor = barus_factor(alpha, pressure)
     result = Result(values={"kv_p": kv * factor, "factor": factor, "alpha_used": alpha})
     low, high = MINERAL_ALPHA_PER_BAR
-    if low <= alpha <= high:
-        result.add("ok", FROM_MEMORY,
-                   "The coefficient {0} is typical of mineral oil; at {1} the oil is about {2}.",
-                   Q(alpha, _ALPHA), Q(pressure, _P), Q(kv * factor, _KV))
-    else:
-        result.add("watch", FROM_MEMORY,
-                   "The coefficient {0} is outside the range typical of mineral oils ({1} to {2}): "
-                   "check the readings, or the fluid's data sheet (water glycols and many "
-                   "synthetics have lower values).", Q(alpha, _ALPHA), Q(low, _ALPHA), Q(high, _ALPHA))
-    if pressure > BARUS_RELIABLE_BAR:
-        result.add("watch", FROM_MEMORY,
-                   "Above about {0} the Barus relation overestimates the rise: treat {1} as an "
-                   "upper bound.", Q(BARUS_RELIABLE_BAR, _P), Q(kv * factor, _KV))
+    kv_p = Q(kv * factor, _KV)
+    result.grade(alpha, ALPHA_BANDS, FROM_MEMORY, alpha=Q(alpha, _ALPHA), low=Q(low, _ALPHA),
+                 high=Q(high, _ALPHA), pressure=Q(pressure, _P), kv_p=kv_p)
+    result.grade(pressure, RELIABLE_BANDS, FROM_MEMORY, reliable=Q(BARUS_RELIABLE_BAR, _P),
+                 kv_p=kv_p)
     result.note("Typical mineral oils: {0} to {1} (15 to 25 1/GPa), from memory; the oil's own "
                 "data sheet takes precedence.", Q(low, _ALPHA), Q(high, _ALPHA))
     result.note("What benefits is the thin film in loaded rolling bearings and gear teeth, where "

@@ -31,7 +31,7 @@ from .lines import (darcy_drop_bar, dynamic_pressure_bar, flow_regime, friction_
 from ..kernel.registry import TANK, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 from ..kernel.solve import bisect
-from .viscosity import check_two_points, walther_fit, walther_viscosity
+from ..methods.viscosity import check_two_points, walther_fit, walther_viscosity
 
 G = 9.80665  # standard gravity [m/s^2], CGPM 1901
 P_ATM_BAR = 1.013  # standard atmosphere 1.01325 bar (ISO 2533), rounded as gauges read it

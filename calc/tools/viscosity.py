@@ -1,24 +1,9 @@
-"""Kinematic viscosity against temperature: ASTM D341 (Walther form) and the pump's window.
+"""The oil's viscosity at any temperature against the pump's window (ASTM D341 line).
 
-ASTM D341 draws an oil's viscosity-temperature line as a straight line on
-log(log(Z)) against log(T), where T is the absolute temperature and Z is the
-kinematic viscosity with a small correction that matters only below about 2 cSt:
-
-    log10(log10(Z)) = A - B * log10(T / K)
-    Z = v + 0.7 + exp(-1.47 - 1.84 v - 0.51 v^2)                (simplified form)
-
-The standard (D341-09 and later) gives the full correction
-
-    Z = v + 0.7 + C - D + E - F + G - H
-    C = exp(-1.14883 - 2.65868 v)      D = exp(-0.0038138 - 12.5645 v)
-    E = exp(5.46491 - 37.6289 v)       F = exp(13.0458 - 74.6851 v)
-    G = exp(37.4619 - 192.643 v)       H = exp(80.4945 - 400.468 v)
-
-and an approximate inverse; here the inverse is solved exactly by Newton's
-method, started from the standard's approximation.
-
-Source: ASTM D341-09 (reapproved 2015), "Viscosity-Temperature Charts for Liquid
-Petroleum Products", equations 1 to 4 (coefficients from memory of the standard).
+The oil is two viscosity readings, or an ISO VG grade (its mid-point KV40) and a VI
+(its KV100 by the ASTM D2270 inverse). The pump's window is four limits: the most it
+can take at start-up, the optimum band, and the least it needs; typical figures per pump
+type are common practice, the pump maker's own always come first.
 """
 
 from __future__ import annotations
@@ -27,133 +12,15 @@ import math
 from functools import partial
 
 from ..kernel import chart, units
+from ..kernel.constants import ZERO_CELSIUS_K
 from ..kernel.errors import InputError
-from ..methods.iso3448 import GRADE_CHOICES, grade_midpoint
+from ..kernel.grading import Band
 from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
-from .vi import kv100_from_vi
-
-KELVIN = 273.15
-
-# D341 covers about 0.21 cSt to 1e6 cSt with the full Z correction.
-KV_MIN_CST = 0.21
-KV_MAX_CST = 1.0e6
-
-
-def walther_z(kv_cst: float) -> float:
-    """ASTM D341 corrected viscosity Z for a kinematic viscosity [cSt].
-
-    >>> round(walther_z(46.0), 6)
-    46.7
-    >>> round(walther_z(1.0), 4)
-    1.7222
-    """
-    v = kv_cst
-    return (v + 0.7
-            + math.exp(-1.14883 - 2.65868 * v)
-            - math.exp(-0.0038138 - 12.5645 * v)
-            + math.exp(5.46491 - 37.6289 * v)
-            - math.exp(13.0458 - 74.6851 * v)
-            + math.exp(37.4619 - 192.643 * v)
-            - math.exp(80.4945 - 400.468 * v))
-
-
-def _dz_dv(v: float) -> float:
-    return (1.0
-            - 2.65868 * math.exp(-1.14883 - 2.65868 * v)
-            + 12.5645 * math.exp(-0.0038138 - 12.5645 * v)
-            - 37.6289 * math.exp(5.46491 - 37.6289 * v)
-            + 74.6851 * math.exp(13.0458 - 74.6851 * v)
-            - 192.643 * math.exp(37.4619 - 192.643 * v)
-            + 400.468 * math.exp(80.4945 - 400.468 * v))
-
-
-def kv_from_z(z: float) -> float:
-    """Kinematic viscosity [cSt] whose D341 Z is `z`: the exact inverse of `walther_z`.
-
-    Starts from the standard's approximation
-    v = (Z - 0.7) - exp(-0.7487 - 3.295 (Z - 0.7) + 0.6119 (Z - 0.7)^2 - 0.3193 (Z - 0.7)^3)
-    and refines by Newton's method to machine precision.
-
-    >>> round(kv_from_z(walther_z(3.3)), 12)
-    3.3
-    """
-    zz = z - 0.7
-    v = zz - math.exp(-0.7487 - 3.295 * zz + 0.6119 * zz ** 2 - 0.3193 * zz ** 3) if zz < 3 else zz
-    v = max(v, KV_MIN_CST)
-    for _ in range(50):
-        step = (walther_z(v) - z) / _dz_dv(v)
-        v -= step
-        if abs(step) <= 1e-13 * max(1.0, v):
-            break
-    return v
-
-
-def walther_fit(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: float) -> tuple[float, float]:
-    """Constants (A, B) of the D341 line through two measured points.
-
-    Viscosity must fall as temperature rises: the warmer point must be the thinner.
-
-    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
-    >>> round(a, 4), round(b, 4)
-    (9.418, 3.6844)
-    """
-    t1, t2 = temp1_c + KELVIN, temp2_c + KELVIN
-    y1 = math.log10(math.log10(walther_z(kv1_cst)))
-    y2 = math.log10(math.log10(walther_z(kv2_cst)))
-    b = (y1 - y2) / (math.log10(t2) - math.log10(t1))
-    a = y1 + b * math.log10(t1)
-    return a, b
-
-
-def walther_viscosity(temp_c: float, a: float, b: float) -> float:
-    """Kinematic viscosity [cSt] at `temp_c` [degC] on the D341 line (A, B).
-
-    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
-    >>> round(walther_viscosity(60.0, a, b), 2)
-    20.62
-    """
-    return kv_from_z(10.0 ** (10.0 ** (a - b * math.log10(temp_c + KELVIN))))
-
-
-def viscosity_on_line(temp_c: float, a: float, b: float) -> float | None:
-    """`walther_viscosity`, or None where the line runs past what a float holds.
-
-    >>> print(viscosity_on_line(-60.0, *walther_fit(240.0, 1000.0, 250.0, 1.0)))
-    None
-    """
-    try:
-        return walther_viscosity(temp_c, a, b)
-    except OverflowError:
-        return None
-
-
-def walther_temperature(kv_cst: float, a: float, b: float) -> float:
-    """Temperature [degC] at which the D341 line (A, B) has viscosity `kv_cst` [cSt].
-
-    >>> a, b = walther_fit(40.0, 46.0, 100.0, 6.8)
-    >>> round(walther_temperature(20.62, a, b), 1)
-    60.0
-    """
-    log_t = (a - math.log10(math.log10(walther_z(kv_cst)))) / b
-    return 10.0 ** log_t - KELVIN
-
-
-def check_two_points(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: float,
-                     fields: tuple[str, str, str, str] = ("temp1", "kv40", "temp2", "kv100")) -> None:
-    """InputError unless the two readings make a D341 line: distinct, thinner when warmer."""
-    f_t1, f_kv1, f_t2, f_kv2 = fields
-    for key, kv in ((f_kv1, kv1_cst), (f_kv2, kv2_cst)):
-        if not KV_MIN_CST <= kv <= KV_MAX_CST:
-            raise InputError(key, f"must be between {KV_MIN_CST} and {KV_MAX_CST:g} cSt (ASTM D341 range)")
-    if abs(temp2_c - temp1_c) < 1.0:
-        raise InputError(f_t2, "the two readings must be at least 1 °C apart")
-    warm_kv, cold_kv = (kv2_cst, kv1_cst) if temp2_c > temp1_c else (kv1_cst, kv2_cst)
-    warm_key = f_kv2 if temp2_c > temp1_c else f_kv1
-    if warm_kv >= cold_kv:
-        raise InputError(warm_key, "the reading at the higher temperature must be the lower "
-                                   "viscosity (an oil thins as it warms)")
-
+from ..methods.iso3448 import GRADE_CHOICES, grade_midpoint
+from ..methods.viscosity import (KV_MAX_CST, KV_MIN_CST, check_two_points, viscosity_on_line,
+                                 walther_fit, walther_temperature, walther_viscosity, walther_z)
+from ..methods.viscosity_index import kv100_from_vi
 
 # Pump viscosity windows [cSt]: (max at start-up, top of optimum band, bottom of optimum
 # band, minimum). Common practice: typical of pump makers' data sheets, from memory.
@@ -183,35 +50,33 @@ def pump_window(pump: str, start_max: float | None = None, opt_high: float | Non
     return window
 
 
-def window_verdict(result: Result, kv: float, temp_c: float,
-                   window: tuple[float, float, float, float], crossings: dict) -> None:
+# The oil's viscosity against the pump's window, worst first at each end (common practice).
+WINDOW_BANDS = (
+    Band("act", "At {temp} the oil is {kv}, thicker than the pump's start-up limit of "
+                "{start_max}: do not start under load; warm the oil above {t_start} first, or "
+                "use a lighter grade.", over="start_max"),
+    Band("watch", "At {temp} the oil is {kv}, thicker than the optimum band ({opt_low} to "
+                  "{opt_high}): fine for warm-up at low load; run at full load only above "
+                  "{t_opt_cold}.", over="opt_high"),
+    Band("ok", "At {temp} the oil is {kv}, inside the pump's optimum band ({opt_low} to "
+               "{opt_high}).", at_least="opt_low"),
+    Band("watch", "At {temp} the oil is {kv}, thinner than the optimum band: leakage and wear "
+                  "rise. Keep the oil below {t_opt_hot} (check the cooler) or use a heavier "
+                  "grade.", at_least="minimum"),
+    Band("act", "At {temp} the oil is {kv}, below the pump's minimum of {minimum}: the film is "
+                "too thin and the pump will wear. Bring the oil below {t_min} or use a heavier "
+                "grade."),
+)
+
+
+def grade_window(result: Result, kv: float, temp_c: float,
+                 window: tuple[float, float, float, float], crossings: dict) -> None:
     """ok / watch / act for the oil's viscosity `kv` at the operating temperature."""
     start_max, opt_high, opt_low, minimum = window
-    at = (Q(temp_c, _T), Q(kv, _KV))
-    if kv > start_max:
-        result.add("act", COMMON_PRACTICE,
-                   "At {0} the oil is {1}, thicker than the pump's start-up limit of {2}: do not "
-                   "start under load; warm the oil above {3} first, or use a lighter grade.",
-                   *at, Q(start_max, _KV), Q(crossings["t_start"], _T))
-    elif kv > opt_high:
-        result.add("watch", COMMON_PRACTICE,
-                   "At {0} the oil is {1}, thicker than the optimum band ({2} to {3}): fine for "
-                   "warm-up at low load; run at full load only above {4}.",
-                   *at, Q(opt_low, _KV), Q(opt_high, _KV), Q(crossings["t_opt_cold"], _T))
-    elif kv >= opt_low:
-        result.add("ok", COMMON_PRACTICE,
-                   "At {0} the oil is {1}, inside the pump's optimum band ({2} to {3}).",
-                   *at, Q(opt_low, _KV), Q(opt_high, _KV))
-    elif kv >= minimum:
-        result.add("watch", COMMON_PRACTICE,
-                   "At {0} the oil is {1}, thinner than the optimum band: leakage and wear rise. "
-                   "Keep the oil below {2} (check the cooler) or use a heavier grade.",
-                   *at, Q(crossings["t_opt_hot"], _T))
-    else:
-        result.add("act", COMMON_PRACTICE,
-                   "At {0} the oil is {1}, below the pump's minimum of {2}: the film is too thin "
-                   "and the pump will wear. Bring the oil below {3} or use a heavier grade.",
-                   *at, Q(minimum, _KV), Q(crossings["t_min"], _T))
+    result.grade(kv, WINDOW_BANDS, COMMON_PRACTICE, temp=Q(temp_c, _T), kv=Q(kv, _KV),
+                 start_max=Q(start_max, _KV), opt_high=Q(opt_high, _KV),
+                 opt_low=Q(opt_low, _KV), minimum=Q(minimum, _KV),
+                 **{k: Q(v, _T) for k, v in crossings.items()})
 
 
 def oil_from_grade(grade: str, vi: float) -> tuple[float, float]:
@@ -239,7 +104,7 @@ def _d341_y(kv_cst: float) -> float:
 
 
 def _d341_x(temp_c: float) -> float:
-    return math.log10(temp_c + KELVIN)
+    return math.log10(temp_c + ZERO_CELSIUS_K)
 
 
 def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
@@ -401,7 +266,7 @@ def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: flo
                             "window": window_text(window),
                             "kv40_used": viscosity_on_line(40.0, a, b),
                             "kv100_used": viscosity_on_line(100.0, a, b)})
-    window_verdict(result, kv, temp, window, crossings)
+    grade_window(result, kv, temp, window, crossings)
     if not (min(temp1, temp2) - 30.0 <= temp <= max(temp1, temp2) + 30.0):
         result.note("{0} is far outside the two readings ({1} and {2}): the D341 line is an "
                     "extrapolation there; confirm with a reading nearer that temperature.",

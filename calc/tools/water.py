@@ -1,25 +1,8 @@
-"""Water in oil: saturation against temperature, % saturation <-> ppm, free water, water in the tank.
+"""The water-in-oil tool: a sensor's % saturation or a lab's ppm against the oil's saturation
+line (calc.methods.water), now and at the coldest the oil gets.
 
-An oil holds water dissolved up to its saturation content S, which rises with
-temperature; water beyond S is free water (haze, emulsion, a layer at the
-bottom). Over the range a machine sees, log10 S falls on a straight line in 1/T
-(the van 't Hoff form of a solubility):
-
-    log10(S / ppm) = A - B / T            T = temp_c + 273.15  [K]
-
-Inline sensors report the relative saturation (water activity x 100) at the
-oil's own temperature; with the linear isotherm those sensors assume,
-
-    ppm = (rh / 100) * S(T)               (definition of relative saturation)
-
-A lab reports the content in ppm by mass by Karl Fischer titration (ASTM D6304).
-Free water drops out when the oil cools below T_free, where S(T_free) equals the
-content:  T_free = B / (A - log10(ppm)).
-
-Sources: log-linear solubility in 1/T (van 't Hoff); hydraulic-oil preset
-constants from memory; insulating-oil constants are Oommen's equation for new
-mineral transformer oil (from memory, checked in the tests against a published
-table).
+The saturation line is one of the presets (from memory) or the user's own two-point
+calibration; outside the range a line covers, its figures are extrapolations and say so.
 """
 
 from __future__ import annotations
@@ -29,36 +12,16 @@ from functools import partial
 
 from ..kernel import chart, units
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import WATER, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
-
-KELVIN = 273.15
-
-# Water at 20 degC, 998.2 kg/m3: IAPWS-95 (checked in the tests against chemicals.iapws95).
-WATER_DENSITY_KG_M3 = 998.2
+from ..methods.water import (OIL_PRESETS, SaturationLine, content_ppm, fit_saturation,
+                             free_water_ppm, free_water_temp_c, relative_saturation_pct,
+                             water_volume_ml)
 
 # Keep the content at most this fraction of saturation at the coldest temperature: common practice.
 TARGET_FRACTION = 0.5
 
-# Oil presets: (key, label, A, B [K], covered from [degC], covered to [degC], source).
-# The hydraulic presets are FROM MEMORY, chosen to give typical figures: plain mineral
-# 100 ppm at 20 degC and 400 ppm at 65 degC; mineral with additives 200 ppm at 20 degC and
-# 600 ppm at 65 degC; synthetic ester 1500 ppm at 20 degC and 3500 ppm at 65 degC.
-# Insulating oil: Oommen's equation for new mineral transformer oil, log10 S = 7.0895 - 1567/T
-# (constants from memory; reproduces a published saturation table, see the tests).
-OIL_PRESETS = (
-    ("mineral-aw", "Mineral hydraulic oil with additives (HM / HLP)", 5.8863, 1051.0, 0.0, 100.0,
-     "Mineral hydraulic oil with additives: constants from memory (about 200 ppm at 20 °C, "
-     "600 ppm at 65 °C)"),
-    ("mineral-plain", "Mineral oil without additives (HH / HL, turbine R&O)", 6.5241, 1326.0,
-     0.0, 100.0,
-     "Mineral oil without additives: constants from memory (about 100 ppm at 20 °C, "
-     "400 ppm at 65 °C)"),
-    ("ester", "Synthetic ester (HEES)", 5.9412, 811.0, 0.0, 100.0,
-     "Synthetic ester: constants from memory (about 1500 ppm at 20 °C, 3500 ppm at 65 °C)"),
-    ("insulating", "Mineral insulating oil (transformer oil, new)", 7.0895, 1567.0, 0.0, 100.0,
-     "Mineral insulating oil: Oommen's equation log10 S = 7.0895 − 1567/T (constants from memory)"),
-)
 OWN_CALIBRATION = "own"
 OIL_CHOICES = tuple((key, label) for key, label, *_ in OIL_PRESETS) + (
     (OWN_CALIBRATION, "Own calibration (two lab or data-sheet points)"),)
@@ -70,114 +33,6 @@ B_MAX_K = 4000.0
 
 _T = "temperature"
 _PPM = "ppm"
-
-
-def saturation_ppm(temp_c: float, a: float, b: float) -> float:
-    """Water content at saturation [ppm by mass], log10(S) = a - b / T.
-
-    Parameters
-    ----------
-    temp_c : oil temperature [degC]
-    a, b : oil constants [-], [K]; presets in OIL_PRESETS, or fitted by `fit_saturation`
-
-    >>> round(saturation_ppm(40.0, 7.0895, 1567.0))
-    122
-
-    Source: log-linear solubility in 1/T (van 't Hoff form); Oommen's constants from memory.
-    """
-    return 10.0 ** (a - b / (temp_c + KELVIN))
-
-
-def fit_saturation(temp1_c: float, sat1_ppm: float, temp2_c: float,
-                   sat2_ppm: float) -> tuple[float, float]:
-    """Constants (A, B [K]) of the saturation line through two (temperature, saturation) points.
-
-    B = (log10 S2 - log10 S1) / (1/T1 - 1/T2),  A = log10 S1 + B / T1
-
-    >>> a, b = fit_saturation(20.0, 200.0, 65.0, 600.0)
-    >>> round(a, 4), round(b)
-    (5.8863, 1051)
-    """
-    t1, t2 = temp1_c + KELVIN, temp2_c + KELVIN
-    b = (math.log10(sat2_ppm) - math.log10(sat1_ppm)) / (1.0 / t1 - 1.0 / t2)
-    return math.log10(sat1_ppm) + b / t1, b
-
-
-def relative_saturation_pct(ppm: float, temp_c: float, a: float, b: float) -> float:
-    """Relative saturation [%] of a content `ppm` [ppm] at `temp_c` [degC]; above 100 % is free water.
-
-    rh = 100 * ppm / S(T)
-
-    >>> round(relative_saturation_pct(61.0, 40.0, 7.0895, 1567.0), 1)
-    50.1
-    """
-    return 100.0 * ppm / saturation_ppm(temp_c, a, b)
-
-
-def content_ppm(rh_pct: float, temp_c: float, a: float, b: float) -> float:
-    """Water content [ppm] of a sensor reading `rh_pct` [%] taken at `temp_c` [degC].
-
-    ppm = (rh / 100) * S(T)
-
-    >>> round(content_ppm(50.0, 40.0, 7.0895, 1567.0), 1)
-    60.9
-    """
-    return rh_pct / 100.0 * saturation_ppm(temp_c, a, b)
-
-
-def free_water_temp_c(ppm: float, a: float, b: float) -> float | None:
-    """Temperature [degC] below which a content `ppm` [ppm] no longer stays dissolved.
-
-    T_free = B / (A - log10 ppm) - 273.15, where S(T_free) = ppm. None when the oil is dry
-    (0 ppm) or when the line never holds that much (ppm >= 10**A).
-
-    >>> round(free_water_temp_c(121.8, 7.0895, 1567.0), 1)
-    40.0
-    """
-    if ppm <= 0.0:
-        return None
-    margin = a - math.log10(ppm)
-    if margin <= 0.0:
-        return None
-    return b / margin - KELVIN
-
-
-def free_water_ppm(ppm: float, temp_c: float, a: float, b: float) -> float:
-    """Free (undissolved) water [ppm] at `temp_c` [degC]: the content above saturation, or 0.
-
-    >>> round(free_water_ppm(300.0, 40.0, 7.0895, 1567.0))
-    178
-    """
-    return max(0.0, ppm - saturation_ppm(temp_c, a, b))
-
-
-def water_volume_ml(ppm: float, oil_volume_l: float, oil_density_kg_m3: float = 870.0) -> float:
-    """Volume of water [mL] in `oil_volume_l` [L] of oil of density [kg/m3] at `ppm` [ppm by mass].
-
-    mL = ppm * 1e-6 * V * rho_oil / rho_water, water at 998.2 kg/m3 (20 degC)
-
-    >>> round(water_volume_ml(500.0, 200.0, 870.0), 1)
-    87.2
-    """
-    return ppm * 1.0e-6 * oil_volume_l * oil_density_kg_m3 / WATER_DENSITY_KG_M3 * 1000.0
-
-
-class SaturationLine:
-    """An oil's saturation line with the temperature range it is trusted over, and its source."""
-
-    def __init__(self, a: float, b: float, t_low: float, t_high: float, source: str, basis: str):
-        self.a, self.b = a, b
-        self.t_low, self.t_high = t_low, t_high
-        self.source, self.basis = source, basis
-
-    def saturation(self, temp_c: float) -> float:
-        return saturation_ppm(temp_c, self.a, self.b)
-
-    def covers(self, temp_c: float) -> bool:
-        return self.t_low <= temp_c <= self.t_high
-
-    def describe(self) -> str:
-        return f"log10 S = {self.a:.4f} − {self.b:.0f}/T"
 
 
 CALIBRATION_KEYS = ("cal_temp1", "cal_ppm1", "cal_temp2", "cal_ppm2")
@@ -225,15 +80,17 @@ def reading_to_ppm(reading: str, rh: float, ppm: float, temp: float, line: Satur
     return content_ppm(rh, temp, line.a, line.b) if reading == "rh" else ppm
 
 
+_OUTSIDE_LINE = ("{temp} is outside the range the saturation line covers ({low} to {high}): "
+                 "the figures there are extrapolated; confirm with a Karl Fischer test "
+                 "(ASTM D6304) or the oil maker's data.")
+COVERED_BANDS = (Band("watch", _OUTSIDE_LINE, under="low"), Band("watch", _OUTSIDE_LINE, over="high"))
+
+
 def warn_outside(result: Result, line: SaturationLine, temps: tuple[float, ...]) -> None:
     """A clear warning for each temperature the saturation line does not cover."""
     for temp_c in temps:
-        if not line.covers(temp_c):
-            result.add("watch", line.basis,
-                       "{0} is outside the range the saturation line covers ({1} to {2}): the "
-                       "figures there are extrapolated; confirm with a Karl Fischer test "
-                       "(ASTM D6304) or the oil maker's data.",
-                       Q(temp_c, _T), Q(line.t_low, _T), Q(line.t_high, _T))
+        result.grade(temp_c, COVERED_BANDS, line.basis, temp=Q(temp_c, _T),
+                     low=Q(line.t_low, _T), high=Q(line.t_high, _T))
 
 
 DRAIN_CAUTION = ("Before draining water from the tank bottom: let the oil settle and cool (hot oil "
@@ -338,15 +195,9 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
         "free_cold_ml": water_volume_ml(free_cold, volume, density),
         "line": line.describe(),
     })
-    if free > 0.0:
-        result.add("act", COMMON_PRACTICE,
-                   "At {0} the oil holds only {1} dissolved; the other {2} is free water: drain "
-                   "it from the tank bottom, find where the water gets in, then dry the oil.",
-                   Q(temp, _T), Q(sat, _PPM), Q(free, _PPM))
-    elif reading == "rh" and rh >= 100.0:
-        result.add("act", COMMON_PRACTICE,
-                   "The sensor reads saturated: there may be free water it cannot count; take a "
-                   "sample for Karl Fischer (ASTM D6304) and check the tank bottom for water.")
+    if not result.grade(free, FREE_NOW_BANDS, COMMON_PRACTICE, temp=Q(temp, _T),
+                        sat=Q(sat, _PPM), free=Q(free, _PPM)) and reading == "rh":
+        result.grade(rh, SENSOR_BANDS, COMMON_PRACTICE)
     cold_verdict(result, content, temp_cold, sat_cold, shown_t_free)
     note_coldest(result, temp, temp_cold_entered)
     note_unused_calibration(result, oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
@@ -376,29 +227,45 @@ def note_coldest(result: Result, temp: float, temp_cold: float) -> None:
                     Q(temp_cold, _T), Q(temp, _T))
 
 
+# Free water now: any is a finding (common practice).
+FREE_NOW_BANDS = (
+    Band("act", "At {temp} the oil holds only {sat} dissolved; the other {free} is free water: "
+                "drain it from the tank bottom, find where the water gets in, then dry the oil.",
+         over=0.0),
+)
+# A sensor reads relative saturation; at 100 % it cannot tell how much free water there is.
+SENSOR_BANDS = (
+    Band("act", "The sensor reads saturated: there may be free water it cannot count; take a "
+                "sample for Karl Fischer (ASTM D6304) and check the tank bottom for water.",
+         at_least=100.0),
+)
+# The content against saturation at the coldest temperature the oil sees (common practice).
+_COLD_SETTLES = (" and settles in the tank bottom and low spots; dry the oil to below {target} and "
+                 "stop the ingress.")
+COLD_BANDS = (
+    Band("act", "At {cold} the oil holds only {sat_cold} dissolved: free water drops out below "
+                "{t_free}" + _COLD_SETTLES, over="sat_cold"),
+    Band("watch", "At {cold} the oil would be at {rh_cold} of saturation, above the usual limit "
+                  "of 50 %: plan to dry it to below {target} and check breathers, seals and "
+                  "coolers for water ingress.", over="target"),
+    Band("ok", "All the water stays dissolved down to {cold}, where the oil is at {rh_cold} of "
+               "saturation: below the usual limit of 50 %."),
+)
+# The same when no temperature holds the water dissolved: free even far warmer.
+COLD_BANDS_FREE_THROUGHOUT = (
+    Band("act", "At {cold} the oil holds only {sat_cold} dissolved: there is free water even far "
+                "warmer than that" + _COLD_SETTLES, over="sat_cold"),
+) + COLD_BANDS[1:]
+
+
 def cold_verdict(result: Result, content: float, temp_cold: float, sat_cold: float,
                  t_free: float | None) -> None:
     """ok / watch / act for the water at the coldest temperature the oil sees."""
-    target = TARGET_FRACTION * sat_cold
-    if content > sat_cold:
-        drops = ("free water drops out below {2}" if t_free is not None
-                 else "there is free water even far warmer than that")
-        result.add("act", COMMON_PRACTICE,
-                   "At {0} the oil holds only {1} dissolved: " + drops + " and settles in the "
-                   "tank bottom and low spots; dry the oil to below {3} and stop the ingress.",
-                   Q(temp_cold, _T), Q(sat_cold, _PPM),
-                   Q(temp_cold if t_free is None else t_free, _T), Q(target, _PPM))
-    elif content > target:
-        result.add("watch", COMMON_PRACTICE,
-                   "At {0} the oil would be at {1} of saturation, above the usual limit of 50 %: "
-                   "plan to dry it to below {2} and check breathers, seals and coolers for "
-                   "water ingress.",
-                   Q(temp_cold, _T), Q(100.0 * content / sat_cold, "percent"), Q(target, _PPM))
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "All the water stays dissolved down to {0}, where the oil is at {1} of "
-                   "saturation: below the usual limit of 50 %.",
-                   Q(temp_cold, _T), Q(100.0 * content / sat_cold, "percent"))
+    bands = COLD_BANDS if t_free is not None else COLD_BANDS_FREE_THROUGHOUT
+    result.grade(content, bands, COMMON_PRACTICE, cold=Q(temp_cold, _T),
+                 sat_cold=Q(sat_cold, _PPM), target=Q(TARGET_FRACTION * sat_cold, _PPM),
+                 rh_cold=Q(100.0 * content / sat_cold, "percent"),
+                 t_free=Q(temp_cold if t_free is None else t_free, _T))
 
 
 CHART_W, CHART_H = 400.0, 330.0

@@ -5,8 +5,9 @@ import math
 import pytest
 
 from calc import bridge
-from calc.tools.blend import (blend_viscosity, blending_number, drain_and_fill, top_up_fraction,
-                        top_up_volume, viscosity_from_blending_number, viscosity_blend)
+from calc.methods.blend import (blend_viscosity, blending_number, drain_and_fill, top_up_fraction,
+                               top_up_volume, viscosity_from_blending_number)
+from calc.tools.blend import viscosity_blend
 from calc.kernel.errors import InputError
 
 DEFAULTS = dict(mode="mix", kv1=46.0, amount1=80.0, kv2=68.0, amount2=20.0, basis="volume",

@@ -5,8 +5,8 @@ import math
 import pytest
 
 from calc import bridge
-from calc.tools.drying import (drying_target_ppm, drying_time_min, halving_time_min,
-                         well_mixed_content_ppm, water_drying)
+from calc.methods.drying import drying_time_min, halving_time_min, well_mixed_content_ppm
+from calc.tools.drying import drying_target_ppm, water_drying
 from calc.tools.water import saturation_line
 
 

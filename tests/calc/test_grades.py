@@ -4,12 +4,12 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.grades import (fit_status, grade_at_temperatures, grade_selector, kv40_from_reading,
-                         viscosity_grade)
+from calc.methods.viscosity import grade_at_temperatures, kv40_from_reading
+from calc.tools.grades import fit_status, grade_selector, viscosity_grade
 from calc.methods.iso3448 import (ISO_VG_GRADES, grade_containing, grade_limits, nearest_grade,
-                          neighbours)
-from calc.tools.vi import kv100_from_vi, viscosity_index
-from calc.tools.viscosity import walther_fit, walther_viscosity
+                                  neighbours)
+from calc.methods.viscosity_index import kv100_from_vi, viscosity_index
+from calc.methods.viscosity import walther_fit, walther_viscosity
 
 VANE = (700.0, 40.0, 16.0, 10.0)  # calc.viscosity.PUMP_WINDOWS["vane"], common practice
 

@@ -6,7 +6,8 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.pressure import barus_alpha, barus_factor, viscosity_pressure
+from calc.methods.pressure import barus_alpha, barus_factor
+from calc.tools.pressure import viscosity_pressure
 
 ATM_IN_BAR = 1.01325  # exact by definition, NIST SP 811
 FITTED = dict(kv=46.0, pressure=700.0 * ATM_IN_BAR, alpha_from="fitted", alpha=2.0e-3,

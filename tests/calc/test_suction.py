@@ -6,7 +6,7 @@ from calc.kernel.errors import InputError
 from calc.tools.lines import line_velocity
 from calc.tools.suction import (G, inlet_pressure_bar, static_head_bar, starving_temperature,
                           strainer_drop_bar, suction_check)
-from calc.tools.viscosity import walther_fit, walther_viscosity
+from calc.methods.viscosity import walther_fit, walther_viscosity
 
 DEFAULTS = dict(flow=100.0, bore=50.0, length=1.5, roughness=0.045, head=0.3, k_sum=1.5,
                 strainer=0.05, strainer_model="viscous", strainer_bypass=None, kv40=46.0,
@@ -33,7 +33,7 @@ def test_laminar_inlet_pressure_by_hand():
 
 
 def test_viscosity_comes_from_calc_viscosity():
-    # The tool must use ASTM D341 from calc.tools.viscosity, not a copy of its own.
+    # The tool must use ASTM D341 from calc.methods.viscosity, not a copy of its own.
     result = run(kv40=68.0, kv100=8.7, temp=55.0, temp_cold=-5.0)
     a, b = walther_fit(40.0, 68.0, 100.0, 8.7)
     assert result.values["kv"] == walther_viscosity(55.0, a, b)

@@ -6,8 +6,9 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.viscosity import (kv_from_z, walther_fit, walther_temperature, walther_viscosity,
-                            walther_z, viscosity_at_temperature)
+from calc.methods.viscosity import (kv_from_z, walther_fit, walther_temperature,
+                                    walther_viscosity, walther_z)
+from calc.tools.viscosity import viscosity_at_temperature
 
 
 def test_walther_line_returns_both_points():
@@ -89,7 +90,7 @@ def test_bridge_us_units_convert_at_the_edge():
 
 def test_oil_from_grade_and_vi_uses_the_d2270_inverse():
     # ISO 3448: VG 46 mid-point 46 cSt; ASTM D2270: the line's KV100 gives back VI 100.
-    from calc.tools.vi import viscosity_index
+    from calc.methods.viscosity_index import viscosity_index
     result = viscosity_at_temperature(0.0, 0.0, 0.0, 0.0, 60.0, "vane", oil_from="grade",
                                       grade="VG 46", vi=100.0)
     v = result.values

@@ -6,9 +6,10 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.water import (OIL_PRESETS, content_ppm, fit_saturation, free_water_ppm,
-                        free_water_temp_c, relative_saturation_pct, saturation_line,
-                        saturation_ppm, water_in_oil, water_volume_ml)
+from calc.methods.water import (OIL_PRESETS, content_ppm, fit_saturation, free_water_ppm,
+                                free_water_temp_c, relative_saturation_pct, saturation_ppm,
+                                water_volume_ml)
+from calc.tools.water import saturation_line, water_in_oil
 
 PRESETS = [p[0] for p in OIL_PRESETS]
 TEMPS = (-20.0, 0.0, 20.0, 40.0, 65.0, 100.0, 140.0)

@@ -8,10 +8,11 @@ hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
 from calc import bridge  # noqa: E402
-from calc.tools.drying import drying_time_min, well_mixed_content_ppm  # noqa: E402
+from calc.methods.drying import drying_time_min, well_mixed_content_ppm  # noqa: E402
 from calc.kernel.errors import InputError  # noqa: E402
-from calc.tools.water import (CALIBRATION_KEYS, OIL_PRESETS, content_ppm,  # noqa: E402
-                        free_water_temp_c, relative_saturation_pct, saturation_line)
+from calc.methods.water import (OIL_PRESETS, content_ppm, free_water_temp_c,  # noqa: E402
+                                relative_saturation_pct)
+from calc.tools.water import CALIBRATION_KEYS, saturation_line  # noqa: E402
 
 presets = st.sampled_from([p[0] for p in OIL_PRESETS])
 temps = st.floats(min_value=-40.0, max_value=150.0)

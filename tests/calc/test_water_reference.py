@@ -4,7 +4,7 @@ import pytest
 
 chemicals = pytest.importorskip("chemicals")
 
-from calc.tools.water import WATER_DENSITY_KG_M3, water_volume_ml  # noqa: E402
+from calc.methods.water import WATER_DENSITY_KG_M3, water_volume_ml  # noqa: E402
 
 
 def test_water_density_at_20c_matches_iapws95():

@@ -5,9 +5,9 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
-from calc.tools.grades import kv40_from_reading  # noqa: E402
-from calc.tools.vi import kv100_from_vi, kv40_from_vi, viscosity_index  # noqa: E402
-from calc.tools.viscosity import walther_fit, walther_viscosity  # noqa: E402
+from calc.methods.viscosity import kv40_from_reading  # noqa: E402
+from calc.methods.viscosity_index import kv100_from_vi, kv40_from_vi, viscosity_index  # noqa: E402
+from calc.methods.viscosity import walther_fit, walther_viscosity  # noqa: E402
 
 kv100s = st.floats(min_value=2.0, max_value=2000.0)
 vis = st.floats(min_value=-50.0, max_value=300.0)

@@ -4,7 +4,7 @@ import pytest
 
 viscosity = pytest.importorskip("chemicals.viscosity")
 
-from calc.tools.vi import D2270_TABLE, kv40_from_vi, lh_values, round_vi, viscosity_index  # noqa: E402
+from calc.methods.viscosity_index import D2270_TABLE, kv40_from_vi, lh_values, round_vi, viscosity_index  # noqa: E402
 
 
 def test_table_matches_chemicals_row_by_row():

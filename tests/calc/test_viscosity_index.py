@@ -4,8 +4,9 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.vi import (D2270_TABLE, kv100_from_vi, kv40_from_vi, lh_values, round_vi,
-                     viscosity_index, viscosity_index_tool)
+from calc.methods.viscosity_index import (D2270_TABLE, kv100_from_vi, kv40_from_vi, lh_values,
+                                          round_vi, viscosity_index)
+from calc.tools.viscosity_index import viscosity_index_of_oil
 
 
 def test_worked_example_procedure_a():
@@ -73,7 +74,7 @@ def test_inverse_refuses_an_oil_too_thin_for_its_vi():
 
 def test_below_2_cst_is_refused():
     with pytest.raises(InputError) as err:
-        viscosity_index_tool("vi", 5.0, 1.5, 100.0)
+        viscosity_index_of_oil("vi", 5.0, 1.5, 100.0)
     assert err.value.field == "kv100" and "2 cSt" in err.value.message
 
 

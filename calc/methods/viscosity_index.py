@@ -28,12 +28,14 @@ import math
 from bisect import bisect_left
 
 from ..kernel.errors import InputError
-from ..kernel.registry import VISCOSITY, Field, Output, tool
-from ..kernel.result import Q, Result
-from ..kernel.solve import bisect
+from ..kernel.solve import find_root
+
 
 KV100_MIN_CST = 2.0  # D2270 does not define VI below this KV100
+
+
 TABLE_TOP_CST = 70.0  # above this KV100, the standard's equations replace Table 1
+
 
 # ASTM D2270-10, Table 1: (KV100 Y [cSt], L [cSt], H [cSt]) for Y from 2 to 70 cSt.
 # Cross-checked row by row against chemicals.viscosity (VI_nus, VI_Ls, VI_Hs) in
@@ -118,6 +120,8 @@ D2270_TABLE = (
     (67.0, 4517.0, 1454.0), (67.5, 4580.0, 1471.0), (68.0, 4645.0, 1488.0), (68.5, 4709.0, 1506.0),
     (69.0, 4773.0, 1523.0), (69.5, 4839.0, 1541.0), (70.0, 4905.0, 1558.0),
 )
+
+
 _TABLE_Y = tuple(row[0] for row in D2270_TABLE)
 
 
@@ -185,30 +189,6 @@ def kv40_from_vi(kv100_cst: float, vi: float) -> float:
     return high / kv100_cst ** n
 
 
-def find_root(f, lo: float, hi: float, steps: int = 400) -> float | None:
-    """The first x in [lo, hi] (lo, hi > 0) where f(x) crosses from negative to >= 0.
-
-    Brackets the crossing on a geometric grid of `steps` points, then bisects to
-    machine precision; None when f never reaches 0 in the range. Robust where f is
-    piecewise (as D2270's interpolated table is) or not monotonic.
-
-    >>> round(find_root(lambda x: x * x - 2.0, 1.0, 10.0), 12)
-    1.414213562373
-    """
-    ratio = (hi / lo) ** (1.0 / steps)
-    left = lo
-    if f(left) >= 0.0:
-        return left
-    for k in range(1, steps + 1):
-        right = hi if k == steps else lo * ratio ** k
-        if f(right) >= 0.0:
-            break
-        left = right
-    else:
-        return None
-    return bisect(f, left, right, rel_tol=1e-14, max_iter=200)
-
-
 def kv100_from_vi(kv40_cst: float, vi: float) -> float:
     """KV100 [cSt] of an oil with KV40 `kv40_cst` [cSt] and viscosity index `vi`.
 
@@ -242,61 +222,3 @@ def check_kv40_kv100(kv40_cst: float, kv100_cst: float) -> None:
         raise InputError("kv100", "ASTM D2270 defines VI only for KV100 of 2 cSt and above")
     if kv100_cst >= kv40_cst:
         raise InputError("kv100", "KV100 must be lower than KV40 (an oil thins as it warms)")
-
-
-_KV = "kinematic_viscosity"
-MODES = (("vi", "VI from KV40 and KV100"), ("kv100", "KV100 from KV40 and VI"))
-
-
-@tool(
-    "viscosity-index",
-    title="Viscosity index",
-    summary="The oil's viscosity index from its viscosity at 40 °C and 100 °C (ASTM D2270), "
-            "or the KV100 an oil of a given KV40 and VI has.",
-    topic=VISCOSITY,
-    inputs=(
-        Field("mode", "Find", "choice", "vi", choices=MODES),
-        Field("kv40", "KV at 40 °C", _KV, 46.0, min=2.0, max=1.0e6,
-              help="From the data sheet or lab report."),
-        Field("kv100", "KV at 100 °C", _KV, 6.8, min=0.21, max=1.0e5,
-              help="Used when finding the VI. At least 2 cSt: D2270 does not go lower."),
-        Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0,
-              help="Used when finding KV100."),
-    ),
-    outputs=(
-        Output("vi", "Viscosity index (rounded)", "vi", "Rounded to the nearest whole number, "
-                                                        "as ASTM D2270 asks.", headline=True),
-        Output("vi_exact", "Viscosity index before rounding", "vi"),
-        Output("kv100_found", "KV at 100 °C for this VI", _KV),
-        Output("l_value", "L (reference oil of VI 0)", _KV,
-               "KV40 of the reference oil of VI 0 with the same KV100."),
-        Output("h_value", "H (reference oil of VI 100)", _KV,
-               "KV40 of the reference oil of VI 100 with the same KV100."),
-        Output("procedure", "D2270 procedure", "text"),
-    ),
-)
-def viscosity_index_tool(mode: str, kv40: float, kv100: float, vi: float) -> Result:
-    """ASTM D2270 VI of (KV40, KV100), or the KV100 of (KV40, VI)."""
-    if mode == "kv100":
-        kv100_found = kv100_from_vi(kv40, vi)
-        vi_exact, kv100_used = vi, kv100_found
-    else:
-        check_kv40_kv100(kv40, kv100)
-        vi_exact, kv100_used, kv100_found = viscosity_index(kv40, kv100), kv100, None
-    low, high = lh_values(kv100_used)
-    procedure = "A (VI up to 100)" if vi_exact <= 100.0 else "B (VI above 100)"
-    result = Result(values={"vi": float(round_vi(vi_exact)), "vi_exact": vi_exact,
-                            "kv100_found": kv100_found, "l_value": low, "h_value": high,
-                            "procedure": procedure})
-    if kv100_used > TABLE_TOP_CST:
-        result.note("KV100 is above 70 cSt: L and H come from the standard's equations, not "
-                    "its table.")
-    result.note("Plain mineral hydraulic oils are usually near VI 95 to 105; high-VI (HV) oils "
-                "and many synthetics are 140 and above. A VI that falls in service points to "
-                "shear of the VI improver (from memory).")
-    if mode == "kv100":
-        result.note("An oil of KV40 {0} and VI {1} has KV100 {2}.",
-                    Q(kv40, _KV), Q(vi, "vi"), Q(kv100_found, _KV))
-    result.sources.append("ASTM D2270-10, sections 6 and 7, Table 1 (L and H), equations above "
-                          "70 cSt")
-    return result
