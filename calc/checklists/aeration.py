@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from ..kernel.registry import Field, Output
 from ..kernel.result import Q, Result
+from ..methods.tank import dwell_minutes
 from ..tools import foam, tank
 from .scoreboard import (AGAINST, MODERATE, STRONG, WEAK, Cause, Check, Scoreboard, Symptom,
                          both_or_neither, checklist)
@@ -175,7 +176,7 @@ def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) 
 def _score_tank(board: Scoreboard, grade: str, air_release, oil_volume, pump_flow) -> None:
     if oil_volume is None or pump_flow is None:
         return
-    dwell = tank.dwell_minutes(oil_volume, pump_flow)
+    dwell = dwell_minutes(oil_volume, pump_flow)
     needed = air_release if air_release is not None else foam.grade_limits(grade).air_release_min
     if dwell < tank.DWELL_OK_RATIO * needed:
         board.add("tank-dwell", STRONG,
@@ -223,4 +224,4 @@ def checklist_aeration(board: Scoreboard, found: Result, grade, air_release, seq
     _score_oil(board, grade, air_release, seq1_tendency, seq1_stability)
     _score_tank(board, grade, air_release, oil_volume, pump_flow)
     found.values["dwell_time"] = (None if oil_volume is None
-                                  else tank.dwell_minutes(oil_volume, pump_flow))
+                                  else dwell_minutes(oil_volume, pump_flow))

@@ -87,14 +87,14 @@ class Scoreboard:
         self.points = {key: 0.0 for key, _ in self.causes}
         self.reasons: dict[str, list[Text]] = {key: [] for key, _ in self.causes}
 
-    def add(self, key: str, points: float, template: str, *args: Q, **named: Q) -> None:
+    def add(self, key: str, points: float, template: str, /, *args: Q, **named: Q) -> None:
         """Give `points` to cause `key` for the reason `template` (with quantities)."""
         if key not in self.points:
             raise KeyError(f"no cause {key!r} in this checklist")
         self.points[key] += points
         self.reasons[key].append(text(template, *args, **named))
 
-    def add_each(self, keys: tuple[str, ...], points: float, template: str, *args: Q,
+    def add_each(self, keys: tuple[str, ...], points: float, template: str, /, *args: Q,
                  **named: Q) -> None:
         for key in keys:
             self.add(key, points, template, *args, **named)

@@ -16,6 +16,9 @@ ABSOLUTE_ZERO_C = -ZERO_CELSIUS_K
 STANDARD_GRAVITY = 9.80665
 # Standard atmosphere [bar] (ISO 2533; 101 325 Pa).
 STANDARD_ATMOSPHERE_BAR = 1.01325
+# The standard atmosphere as pressure gauges and data sheets round it [bar absolute]: the
+# default of the atmospheric-pressure fields (common practice).
+ATMOSPHERE_ROUNDED_BAR = 1.013
 # Stefan-Boltzmann constant [W/(m^2 K^4)] (CODATA 2018).
 STEFAN_BOLTZMANN = 5.670374419e-8
 # Molar gas constant [J/(mol K)] (CODATA 2018, exact).

@@ -8,7 +8,7 @@ technician acts on and, where it differs from the tool's, the basis of the limit
         Band("watch", "Stiffness down {loss}: find where air gets in.", at_least=5.0),
         Band("ok", "Stiffness down only {loss}."),
     )
-    result.grade(loss, LOSS_BANDS, basis=COMMON_PRACTICE, loss=Q(loss, "percent"))
+    result.grade(loss, LOSS_BANDS, COMMON_PRACTICE, loss=Q(loss, "percent"))
 
 The first band whose bounds all hold is the verdict; when none holds there is none. A bound is a number in calc's metric
 unit, or the name of a quantity given to the grading (a limit typed on the form):

@@ -9,7 +9,7 @@ Verdicts come from grading a value against its bands (`calc.kernel.grading`):
 >>> from calc.kernel.grading import Band
 >>> r = Result(values={})
 >>> r.grade(7.0, (Band("act", "Loss {loss} is large.", at_least=5.0),
-...               Band("ok", "Loss {loss} is small.")), basis=COMMON_PRACTICE,
+...               Band("ok", "Loss {loss} is small.")), COMMON_PRACTICE,
 ...         loss=Q(7.0, "percent")).level
 'act'
 >>> r.verdicts[0].message.render(lambda v, q: f"{v:g} %")
@@ -51,7 +51,7 @@ class Text:
                                     **{k: show(q.value, q.quantity) for k, q in self.named})
 
 
-def text(template: str, *args: Q, **named: Q) -> Text:
+def text(template: str, /, *args: Q, **named: Q) -> Text:
     return Text(template, tuple(args), tuple(named.items()))
 
 
@@ -68,7 +68,7 @@ class Verdict:
             raise ValueError(f"verdict level must be one of {LEVELS}, not {self.level!r}")
 
 
-def verdict(level: str, basis: str, template: str, *args: Q, **named: Q) -> Verdict:
+def verdict(level: str, basis: str, template: str, /, *args: Q, **named: Q) -> Verdict:
     return Verdict(level, text(template, *args, **named), basis)
 
 
@@ -95,13 +95,13 @@ class Result:
     charts: dict[str, Callable[[str], str]] = field(default_factory=dict)
     ranked: list[RankedCause] = field(default_factory=list)  # most likely first
 
-    def note(self, template: str, *args: Q, **named: Q) -> None:
+    def note(self, template: str, /, *args: Q, **named: Q) -> None:
         self.notes.append(text(template, *args, **named))
 
-    def add(self, level: str, basis: str, template: str, *args: Q, **named: Q) -> None:
+    def add(self, level: str, basis: str, template: str, /, *args: Q, **named: Q) -> None:
         self.verdicts.append(verdict(level, basis, template, *args, **named))
 
-    def grade(self, value: float, bands: tuple[Band, ...], basis: str | None = None,
+    def grade(self, value: float, bands: tuple[Band, ...], basis: str | None = None, /,
               **named: Q) -> Band | None:
         """Add the verdict of the first band that holds `value`; returns that band, or None
         (and adds nothing) when no band holds it.

@@ -26,10 +26,7 @@ Jacobsen air formulation in `chemicals`).
 
 from __future__ import annotations
 
-
-KELVIN = 273.15
-GRAVITY = 9.80665  # m/s^2, standard gravity (CGPM 1901)
-STEFAN_BOLTZMANN = 5.670374419e-8  # W/(m^2 K^4), CODATA 2018
+from ..kernel.constants import STANDARD_GRAVITY, STEFAN_BOLTZMANN, ZERO_CELSIUS_K
 
 # Air at 1 atm: (T [K], kinematic viscosity [1e-6 m^2/s], thermal conductivity [1e-3 W/(m K)],
 # Prandtl number). Incropera et al., Fundamentals of Heat and Mass Transfer, Table A.4
@@ -58,7 +55,7 @@ def air_properties(temp_c: float) -> tuple[float, float, float]:
     >>> round(nu * 1e6, 2), round(k * 1e3, 1), pr
     (15.89, 26.3, 0.707)
     """
-    t = min(max(temp_c + KELVIN, AIR_1ATM[0][0]), AIR_1ATM[-1][0])
+    t = min(max(temp_c + ZERO_CELSIUS_K, AIR_1ATM[0][0]), AIR_1ATM[-1][0])
     for (t0, *row0), (t1, *row1) in zip(AIR_1ATM, AIR_1ATM[1:]):
         if t <= t1:
             w = (t - t0) / (t1 - t0)
@@ -73,8 +70,8 @@ def grashof(length_m: float, surface_c: float, air_c: float, nu_m2s: float) -> f
     >>> round(grashof(1.0, 60.0, 20.0, 1.7e-5) / 1e9, 3)
     4.334
     """
-    beta = 1.0 / ((surface_c + air_c) / 2.0 + KELVIN)
-    return GRAVITY * beta * abs(surface_c - air_c) * length_m ** 3 / nu_m2s ** 2
+    beta = 1.0 / ((surface_c + air_c) / 2.0 + ZERO_CELSIUS_K)
+    return STANDARD_GRAVITY * beta * abs(surface_c - air_c) * length_m ** 3 / nu_m2s ** 2
 
 
 def nu_vertical_plate(rayleigh: float, prandtl: float) -> float:
@@ -151,5 +148,5 @@ def radiation_coefficient(emissivity: float, surface_c: float, air_c: float) -> 
     >>> round(radiation_coefficient(0.9, 60.0, 20.0), 2)
     6.29
     """
-    ts, ta = surface_c + KELVIN, air_c + KELVIN
+    ts, ta = surface_c + ZERO_CELSIUS_K, air_c + ZERO_CELSIUS_K
     return emissivity * STEFAN_BOLTZMANN * (ts * ts + ta * ta) * (ts + ta)

@@ -1,44 +1,54 @@
-"""Pump inlet pressure: hot, at a cold start, and the temperature below which the pump starves.
+"""The suction-check tool: the pump's inlet pressure warm and at a cold start
+(calc.methods.suction) against its minimum, and where the pump starts to starve.
 
-Energy balance from the oil surface in the tank (at rest, at atmospheric
-pressure) to the pump inlet (absolute pressures):
-
-    p_inlet = p_atm + rho g h - (1 + K + f L / D) rho v^2 / 2 - dp_strainer
-
-h is the height of the lowest working oil level above the inlet (negative when
-the pump lifts the oil), the 1 is the velocity head the oil gains, K the sum of
-the fittings' loss factors (entry, elbows, valves), f the Darcy friction factor
-of the line (calc.lines: 64/Re laminar, Colebrook turbulent). The oil's
-viscosity at each temperature comes from its ASTM D341 line (calc.viscosity).
-
-Assumptions, each said in the result: fitting K factors are turbulent-flow
-values held constant (in cold laminar flow real fitting losses are higher);
-density does not change with temperature; a strainer's drop is entered clean at
-the operating temperature and either rises in proportion to viscosity (laminar
-flow through the mesh, an assumption) or is held constant.
-
-Sources: Darcy-Weisbach and Bernoulli (any fluid mechanics text); standard
-gravity 9.806 65 m/s^2 (CGPM 1901); minimum inlet pressure default common practice.
+Assumptions, each said in the result: fitting K factors are turbulent-flow values held
+constant (in cold laminar flow real fitting losses are higher); density does not change
+with temperature; a strainer's drop is entered clean at the operating temperature and
+either rises in proportion to viscosity or is held constant. The minimum inlet pressure
+default and the margins are common practice.
 """
 
 from __future__ import annotations
 
-from typing import Callable
-
+from ..kernel.constants import ATMOSPHERE_ROUNDED_BAR
 from ..kernel.errors import InputError
-from .lines import (darcy_drop_bar, dynamic_pressure_bar, flow_regime, friction_factor,
-                    line_velocity, reynolds_number)
+from ..kernel.grading import Band
 from ..kernel.registry import TANK, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
-from ..kernel.solve import bisect
+from ..methods.lines import flow_regime, line_velocity, reynolds_number
+from ..methods.suction import (SCAN_LOW_C, inlet_pressure_bar, starving_temperature,
+                               strainer_drop_bar)
 from ..methods.viscosity import check_two_points, walther_fit, walther_viscosity
 
-G = 9.80665  # standard gravity [m/s^2], CGPM 1901
-P_ATM_BAR = 1.013  # standard atmosphere 1.01325 bar (ISO 2533), rounded as gauges read it
 P_MIN_BAR = 0.8  # typical minimum absolute inlet pressure of industrial pumps: common practice
 MARGIN_WATCH_BAR = 0.1  # a margin smaller than this is a warning: common practice
-SCAN_LOW_C = -40.0  # coldest temperature searched for starving
-SCAN_STEP_K = 1.0
+
+_FIXES = ("use a larger or shorter suction line with fewer bends, raise the oil level or set "
+          "the pump below the tank (flooded inlet), and clean or enlarge the strainer")
+# The inlet's margin over the pump's minimum when warm, and at a cold start (common practice).
+WARM_BANDS = (
+    Band("act", "Even warm ({temp}) the inlet is at {p}, below the pump's minimum of {p_min}: "
+                "the pump starves and cavitates; " + _FIXES + ".", under=0.0),
+    Band("watch", "Warm ({temp}) the inlet is at {p}, only {margin} above the pump's minimum: a "
+                  "clogging strainer or a low oil level will starve the pump.",
+         under=MARGIN_WATCH_BAR),
+    Band("ok", "Warm ({temp}) the inlet is at {p}, {margin} above the pump's minimum."),
+)
+COLD_BANDS = (
+    Band("act", "At a cold start ({temp}) the inlet falls to {p}, below the pump's minimum of "
+                "{p_min}: the pump starves until the oil is warmer than {t_starve}. Warm the oil "
+                "first (tank heater, or run unloaded at low speed), or " + _FIXES + ", or choose "
+                "a lighter or higher-VI oil.", under=0.0),
+    Band("watch", "At a cold start ({temp}) the inlet is at {p}, close to the pump's minimum of "
+                  "{p_min}: start unloaded and let the oil warm before full flow.",
+         under=MARGIN_WATCH_BAR),
+    Band("ok", "At a cold start ({temp}) the inlet stays at {p}; the pump would starve only with "
+               "oil colder than {t_starve}."),
+)
+COLD_BANDS_NEVER_STARVES = COLD_BANDS[:2] + (
+    Band("ok", "At a cold start ({temp}) the inlet stays at {p}, and the pump does not starve "
+               "with oil down to {coldest}."),
+)
 
 STRAINER_CHOICES = (("viscous", "Rises with viscosity (mesh, laminar)"),
                     ("constant", "Constant"))
@@ -46,71 +56,6 @@ STRAINER_CHOICES = (("viscous", "Rises with viscosity (mesh, laminar)"),
 _P = "pressure"
 _T = "temperature"
 _KV = "kinematic_viscosity"
-
-
-def static_head_bar(density_kgm3: float, head_m: float) -> float:
-    """Pressure of an oil column rho g h [bar]; negative h (pump above the oil) gives suction.
-
-    >>> round(static_head_bar(870.0, 1.0), 5)
-    0.08532
-    """
-    return density_kgm3 * G * head_m / 1.0e5
-
-
-def strainer_drop_bar(rated_bar: float, kv_cst: float, rated_kv_cst: float, model: str,
-                      bypass_bar: float | None = None) -> float:
-    """Strainer pressure drop [bar] at `kv_cst`, from `rated_bar` measured at `rated_kv_cst`.
-
-    model "viscous": dp = rated * kv / rated_kv (laminar flow through a mesh: an assumption);
-    model "constant": dp = rated. A bypass valve caps the drop at its opening pressure.
-
-    >>> strainer_drop_bar(0.05, 460.0, 23.0, "viscous"), strainer_drop_bar(0.05, 460.0, 23.0, "viscous", 0.2)
-    (1.0, 0.2)
-    """
-    drop = rated_bar * kv_cst / rated_kv_cst if model == "viscous" else rated_bar
-    return drop if bypass_bar is None else min(drop, bypass_bar)
-
-
-def inlet_pressure_bar(atmosphere_bar: float, head_m: float, density_kgm3: float,
-                       flow_lpm: float, bore_mm: float, length_m: float, roughness_mm: float,
-                       k_sum: float, kv_cst: float, strainer_bar: float) -> float:
-    """Absolute pressure [bar] at the pump inlet.
-
-    p = p_atm + rho g h - (1 + K + f L / D) rho v^2 / 2 - dp_strainer
-
-    >>> round(inlet_pressure_bar(1.013, 0.3, 870.0, 100.0, 50.0, 1.5, 0.045, 1.5, 23.0, 0.05), 4)
-    0.9775
-    """
-    velocity = line_velocity(flow_lpm, bore_mm)
-    f = friction_factor(reynolds_number(velocity, bore_mm, kv_cst), roughness_mm / bore_mm)
-    line_loss = (darcy_drop_bar(f, length_m, bore_mm, density_kgm3, velocity)
-                 + (1.0 + k_sum) * dynamic_pressure_bar(density_kgm3, velocity))
-    return atmosphere_bar + static_head_bar(density_kgm3, head_m) - line_loss - strainer_bar
-
-
-def starving_temperature(inlet_at: Callable[[float], float], p_min_bar: float,
-                         warm_c: float, cold_c: float = SCAN_LOW_C) -> float | None:
-    """Warmest temperature [degC] below `warm_c` at which `inlet_at(T)` falls to `p_min_bar`.
-
-    Steps down from `warm_c` in 1 K steps to the first temperature with the inlet below the
-    minimum, then bisects that step to 1e-6 K. None when the inlet is already below the
-    minimum at `warm_c`, or stays above it down to `cold_c`. (Stepping first matters: the
-    friction loss drops a little where cooling turns the flow laminar, so the margin is not
-    strictly monotone in temperature across the transition.)
-
-    >>> round(starving_temperature(lambda t: 0.5 + 0.01 * t, 0.8, 80.0), 6)
-    30.0
-    """
-    margin = lambda t: inlet_at(t) - p_min_bar  # noqa: E731
-    if margin(warm_c) < 0.0:
-        return None
-    upper = warm_c
-    while upper > cold_c:
-        lower = max(upper - SCAN_STEP_K, cold_c)
-        if margin(lower) < 0.0:
-            return bisect(margin, lower, upper, x_tol=1e-6, rel_tol=0.0, max_iter=60)
-        upper = lower
-    return None
 
 
 @tool(
@@ -146,7 +91,7 @@ def starving_temperature(inlet_at: Callable[[float], float], p_min_bar: float,
               help="About 850 to 890 kg/m³ for mineral hydraulic oil (from memory)."),
         Field("temp", "Operating oil temperature", _T, 50.0, min=-40.0, max=150.0),
         Field("temp_cold", "Cold start oil temperature", _T, 0.0, min=-40.0, max=150.0),
-        Field("atmosphere", "Atmospheric pressure (absolute)", _P, P_ATM_BAR, min=0.5, max=1.1,
+        Field("atmosphere", "Atmospheric pressure (absolute)", _P, ATMOSPHERE_ROUNDED_BAR, min=0.5, max=1.1,
               help="1.013 bar at sea level; about 0.9 bar at 1000 m."),
         Field("p_min", "Pump minimum inlet pressure (absolute)", _P, P_MIN_BAR, min=0.1, max=5.0,
               help="From the pump's data sheet; 0.8 bar absolute is typical (common practice)."),
@@ -217,44 +162,13 @@ def suction_check(flow: float, bore: float, length: float, roughness: float, hea
 
 def _verdicts(result: Result, temp: float, temp_cold: float, p_hot: float, p_cold: float,
               p_min: float, t_starve: float | None) -> None:
-    fixes = ("use a larger or shorter suction line with fewer bends, raise the oil level or "
-             "set the pump below the tank (flooded inlet), and clean or enlarge the strainer")
-    if p_hot < p_min:
-        result.add("act", COMMON_PRACTICE,
-                   "Even warm ({0}) the inlet is at {1}, below the pump's minimum of {2}: the "
-                   "pump starves and cavitates; " + fixes + ".",
-                   Q(temp, _T), Q(p_hot, _P), Q(p_min, _P))
-    elif p_hot - p_min < MARGIN_WATCH_BAR:
-        result.add("watch", COMMON_PRACTICE,
-                   "Warm ({0}) the inlet is at {1}, only {2} above the pump's minimum: a "
-                   "clogging strainer or a low oil level will starve the pump.",
-                   Q(temp, _T), Q(p_hot, _P), Q(p_hot - p_min, _P))
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "Warm ({0}) the inlet is at {1}, {2} above the pump's minimum.",
-                   Q(temp, _T), Q(p_hot, _P), Q(p_hot - p_min, _P))
-    if p_hot < p_min:
+    warm = result.grade(p_hot - p_min, WARM_BANDS, COMMON_PRACTICE, temp=Q(temp, _T),
+                        p=Q(p_hot, _P), p_min=Q(p_min, _P), margin=Q(p_hot - p_min, _P))
+    if warm.level == "act":
         return
-    if p_cold < p_min:
-        result.add("act", COMMON_PRACTICE,
-                   "At a cold start ({0}) the inlet falls to {1}, below the pump's minimum of "
-                   "{2}: the pump starves until the oil is warmer than {3}. Warm the oil first "
-                   "(tank heater, or run unloaded at low speed), or " + fixes
-                   + ", or choose a lighter or higher-VI oil.",
-                   Q(temp_cold, _T), Q(p_cold, _P), Q(p_min, _P), Q(t_starve, _T))
-    elif p_cold - p_min < MARGIN_WATCH_BAR:
-        result.add("watch", COMMON_PRACTICE,
-                   "At a cold start ({0}) the inlet is at {1}, close to the pump's minimum of "
-                   "{2}: start unloaded and let the oil warm before full flow.",
-                   Q(temp_cold, _T), Q(p_cold, _P), Q(p_min, _P))
-    elif t_starve is not None:
-        result.add("ok", COMMON_PRACTICE,
-                   "At a cold start ({0}) the inlet stays at {1}; the pump would starve only "
-                   "with oil colder than {2}.", Q(temp_cold, _T), Q(p_cold, _P), Q(t_starve, _T))
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "At a cold start ({0}) the inlet stays at {1}, and the pump does not starve "
-                   "with oil down to {2}.", Q(temp_cold, _T), Q(p_cold, _P), Q(SCAN_LOW_C, _T))
+    result.grade(p_cold - p_min, COLD_BANDS if t_starve is not None else COLD_BANDS_NEVER_STARVES,
+                 COMMON_PRACTICE, temp=Q(temp_cold, _T), p=Q(p_cold, _P), p_min=Q(p_min, _P),
+                 t_starve=Q(t_starve, _T), coldest=Q(SCAN_LOW_C, _T))
 
 
 def _notes(result: Result, velocity: float, strainer: float, strainer_model: str,

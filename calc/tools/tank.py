@@ -1,124 +1,18 @@
-"""Tank volume at a level, and tank size against the pump's flow and the oil's air release.
-
-Three shapes, all measured inside, level from the inside bottom:
-
-    rectangular          V = L W h
-    vertical cylinder    V = (pi D^2 / 4) h
-    horizontal cylinder  V = L [R^2 acos((R - h) / R) - (R - h) sqrt(2 R h - h^2)]   (flat ends)
-
-The horizontal cylinder's segment area is the circular segment of height h
-(any geometry handbook, e.g. Perry's Chemical Engineers' Handbook, "mensuration
-formulas"); its inverse, the level holding a given volume, has no closed form
-and is solved by bisection.
+"""The tank tools: oil volume at a level (calc.methods.tank), and the tank against the pump's
+flow and the oil's air-release time (common practice).
 """
 
 from __future__ import annotations
 
-import math
-
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import TANK, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
-from ..kernel.solve import bisect
-
-MM3_PER_L = 1.0e6
+from ..methods.tank import depth_mm, dwell_minutes, level_for_volume_mm, tank_volume_needed_l, \
+    volume_at_level_l
 
 SHAPE_CHOICES = (("rectangular", "Rectangular"), ("vertical", "Vertical cylinder"),
                  ("horizontal", "Horizontal cylinder, flat ends"))
-
-
-def rectangular_volume_l(length_mm: float, width_mm: float, level_mm: float) -> float:
-    """Oil [L] in a rectangular tank, V = L W h; dimensions inside [mm].
-
-    >>> rectangular_volume_l(1000.0, 500.0, 400.0)
-    200.0
-    """
-    return length_mm * width_mm * level_mm / MM3_PER_L
-
-
-def vertical_cylinder_volume_l(diameter_mm: float, level_mm: float) -> float:
-    """Oil [L] in an upright cylinder, V = (pi D^2 / 4) h; inside diameter and level [mm].
-
-    >>> round(vertical_cylinder_volume_l(1000.0, 500.0), 2)
-    392.7
-    """
-    return math.pi * diameter_mm ** 2 / 4.0 * level_mm / MM3_PER_L
-
-
-def segment_area_mm2(diameter_mm: float, level_mm: float) -> float:
-    """Area [mm^2] of a circle of `diameter_mm` below a chord at height `level_mm`.
-
-    A = R^2 acos((R - h) / R) - (R - h) sqrt(2 R h - h^2) = R^2 (theta - sin theta) / 2,
-    with the central angle theta = 4 asin(sqrt(h / D)) (the same angle, free of the
-    cancellation acos suffers near h = 0); above half full, A = pi R^2 - A(D - h).
-
-    >>> round(segment_area_mm2(1000.0, 500.0) / (math.pi * 500.0 ** 2 / 2.0), 12)
-    1.0
-    """
-    h = min(max(level_mm, 0.0), diameter_mm)
-    if h > diameter_mm / 2.0:
-        return math.pi * diameter_mm ** 2 / 4.0 - segment_area_mm2(diameter_mm, diameter_mm - h)
-    theta = 4.0 * math.asin(math.sqrt(h / diameter_mm))
-    # theta - sin(theta) by its series when small, where the difference would lose digits.
-    excess = (theta ** 3 / 6.0 - theta ** 5 / 120.0 + theta ** 7 / 5040.0 if theta < 1e-2
-              else theta - math.sin(theta))
-    return diameter_mm ** 2 / 8.0 * excess
-
-
-def horizontal_cylinder_volume_l(diameter_mm: float, length_mm: float, level_mm: float) -> float:
-    """Oil [L] in a horizontal cylinder with flat ends: segment area times length.
-
-    Source: circular segment formula (Perry's Handbook, mensuration formulas).
-
-    >>> round(horizontal_cylinder_volume_l(1000.0, 2000.0, 250.0), 1)
-    307.1
-    """
-    return segment_area_mm2(diameter_mm, level_mm) * length_mm / MM3_PER_L
-
-
-def horizontal_cylinder_level_mm(diameter_mm: float, length_mm: float, volume_l: float) -> float:
-    """Level [mm] at which a horizontal flat-ended cylinder holds `volume_l` [L].
-
-    The segment area grows monotonically with the level, so bisection on
-    [0, D] converges; 60 halvings reach below 1e-15 D.
-
-    >>> round(horizontal_cylinder_level_mm(1000.0, 2000.0, 307.092), 2)
-    250.0
-    """
-    return bisect(lambda level: horizontal_cylinder_volume_l(diameter_mm, length_mm, level)
-                  - volume_l, 0.0, diameter_mm, rel_tol=0.0, max_iter=60)
-
-
-def depth_mm(shape: str, height_mm: float, diameter_mm: float) -> float:
-    """The inside depth of the tank: its height, or the diameter of a horizontal cylinder."""
-    return diameter_mm if shape == "horizontal" else height_mm
-
-
-def volume_at_level_l(shape: str, length_mm: float, width_mm: float, height_mm: float,
-                      diameter_mm: float, level_mm: float) -> float:
-    """Oil [L] at `level_mm` in a tank of `shape`; dimensions a shape does not use are ignored.
-
-    >>> volume_at_level_l("vertical", 0.0, 0.0, 1200.0, 1000.0, 500.0) == vertical_cylinder_volume_l(1000.0, 500.0)
-    True
-    """
-    if shape == "rectangular":
-        return rectangular_volume_l(length_mm, width_mm, level_mm)
-    if shape == "vertical":
-        return vertical_cylinder_volume_l(diameter_mm, level_mm)
-    return horizontal_cylinder_volume_l(diameter_mm, length_mm, level_mm)
-
-
-def level_for_volume_mm(shape: str, length_mm: float, width_mm: float, height_mm: float,
-                        diameter_mm: float, volume_l: float) -> float:
-    """The level [mm] at which a tank of `shape` holds `volume_l` [L]: the inverse of
-    `volume_at_level_l` (closed form for the prisms, bisection for the horizontal cylinder).
-
-    >>> level_for_volume_mm("rectangular", 1000.0, 500.0, 800.0, 0.0, 200.0)
-    400.0
-    """
-    if shape == "horizontal":
-        return horizontal_cylinder_level_mm(diameter_mm, length_mm, volume_l)
-    return volume_l / volume_at_level_l(shape, length_mm, width_mm, height_mm, diameter_mm, 1.0)
 
 
 def shape_fields() -> tuple[Field, ...]:
@@ -150,6 +44,13 @@ def check_level(shape: str, height_mm: float, diameter_mm: float, level_mm: floa
 _V = "volume"
 _MM = "length"
 _PCT = "percent"
+
+# Air space above the oil (common practice): room for expansion and for oil coming back.
+AIR_SPACE_BANDS = (
+    Band("watch", "Less than a tenth of the tank ({tenth}) is air space: leave room for the oil's "
+                  "expansion when hot and for oil coming back from cylinders and accumulators "
+                  "when the machine stops.", under="tenth"),
+)
 
 
 @tool(
@@ -189,11 +90,7 @@ def tank_volume(shape: str, length: float, width: float, height: float, diameter
     result = Result(values={"oil_volume": oil, "oil_level": oil_level, "full_volume": full,
                             "percent_full": 100.0 * oil / full, "air_space": full - oil,
                             "mode": mode})
-    if full - oil < 0.1 * full:
-        result.add("watch", COMMON_PRACTICE,
-                   "Less than a tenth of the tank ({0}) is air space: leave room for the oil's "
-                   "expansion when hot and for oil coming back from cylinders and accumulators "
-                   "when the machine stops.", Q(0.1 * full, _V))
+    result.grade(full - oil, AIR_SPACE_BANDS, COMMON_PRACTICE, tenth=Q(0.1 * full, _V))
     result.note("Dimensions are inside dimensions; baffles, pipes and heaters inside the tank "
                 "take up some of the volume, and the oil below the suction inlet cannot be used.")
     if shape == "horizontal":
@@ -218,26 +115,34 @@ DWELL_ACT_RATIO = 0.5
 
 _MIN = "minutes"
 
-
-def dwell_minutes(oil_volume_l: float, flow_lpm: float) -> float:
-    """Mean time [min] the oil spends in the tank, t = V / Q.
-
-    The mean of a well-mixed tank; flow short-circuiting from return to suction makes the
-    real time for part of the oil shorter.
-
-    >>> dwell_minutes(300.0, 100.0)
-    3.0
-    """
-    return oil_volume_l / flow_lpm
-
-
-def tank_volume_needed_l(flow_lpm: float, minutes: float, fill_fraction: float) -> float:
-    """Full tank volume [L] that holds `minutes` of pump flow when filled to `fill_fraction`.
-
-    >>> tank_volume_needed_l(100.0, 3.0, 0.75)
-    400.0
-    """
-    return flow_lpm * minutes / fill_fraction
+# The tank in minutes of pump flow against common practice for the application.
+FLOW_MINUTES_BANDS = (
+    Band("watch", "The tank holds only {minutes} of pump flow, under the usual {low} to {high}: "
+                  "the oil has little time to shed air, heat and dirt; a tank of about {needed}, "
+                  "or a cooler and a well-placed return, make up for it.", under="low"),
+    Band("ok", "The tank holds {minutes} of pump flow, at or above the usual {low} to {high}."),
+)
+# The dwell at a level against the oil's air-release time (common practice).
+DWELL_BANDS = (
+    Band("ok", "At the {where} the oil stays {dwell} in the tank, at least its air-release time "
+               "of {air_release}.", at_least="ok_dwell"),
+    Band("watch", "At the {where} the oil stays {dwell}, less than its air-release time of "
+                  "{air_release}: some air goes back to the pump; keep the level up, fit a baffle "
+                  "and a return diffuser, or use an oil with better air release.",
+         at_least="act_dwell"),
+    Band("act", "At the {where} the oil stays only {dwell}, under half its air-release time of "
+                "{air_release}: aerated oil goes back to the pump; raise the level, fit a bigger "
+                "tank or baffles and a diffuser, slow the return, or use an oil with better air "
+                "release."),
+)
+# The level the dwell needs against the levels the tank runs at (common practice).
+LEVEL_NEEDED_BANDS = (
+    Band("act", "Even full, this tank holds less than the air-release time of flow: fit a bigger "
+                "tank (about {needed}) or use an oil with a shorter air-release time.",
+         over=100.0),
+    Band("watch", "Keep the level above {level} of the full volume: below it the oil leaves the "
+                  "tank before its air has risen out.", over="lowest"),
+)
 
 
 @tool(
@@ -298,30 +203,17 @@ def tank_sizing(tank_volume: float, flow: float, application: str, working_level
               "level_needed": level_needed if level_needed <= 100.0 else None,
               "tank_needed": needed}
     result = Result(values=values)
-    at = (Q(flow_minutes, _MIN), Q(lo_min, _MIN), Q(hi_min, _MIN))
-    if flow_minutes < lo_min:
-        result.add("watch", COMMON_PRACTICE,
-                   "The tank holds only {0} of pump flow, under the usual {1} to {2}: the oil has "
-                   "little time to shed air, heat and dirt; a tank of about {3}, or a cooler and "
-                   "a well-placed return, make up for it.", *at, Q(needed, _V))
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "The tank holds {0} of pump flow, at or above the usual {1} to {2}.", *at)
-    _dwell_verdict(result, "working level", dwell, air_release)
+    result.grade(flow_minutes, FLOW_MINUTES_BANDS, COMMON_PRACTICE, minutes=Q(flow_minutes, _MIN),
+                 low=Q(lo_min, _MIN), high=Q(hi_min, _MIN), needed=Q(needed, _V))
+    _grade_dwell(result, "working level", dwell, air_release)
     if low_level is not None:
         low_dwell = dwell_minutes(tank_volume * low_level / 100.0, flow)
         values.update(low_dwell=low_dwell, low_ratio=low_dwell / air_release)
         if low_level < working_level:
-            _dwell_verdict(result, "low level", low_dwell, air_release)
-    if level_needed > 100.0:
-        result.add("act", COMMON_PRACTICE,
-                   "Even full, this tank holds less than the air-release time of flow: fit a "
-                   "bigger tank (about {0}) or use an oil with a shorter air-release time.",
-                   Q(needed, _V))
-    elif level_needed > min(working_level, low_level or working_level):
-        result.add("watch", COMMON_PRACTICE,
-                   "Keep the level above {0} of the full volume: below it the oil leaves the "
-                   "tank before its air has risen out.", Q(level_needed, _PCT))
+            _grade_dwell(result, "low level", low_dwell, air_release)
+    result.grade(level_needed, LEVEL_NEEDED_BANDS, COMMON_PRACTICE, needed=Q(needed, _V),
+                 level=Q(level_needed, _PCT),
+                 lowest=Q(min(working_level, low_level or working_level), _PCT))
     if baffle == "no":
         result.add("watch", COMMON_PRACTICE,
                    "Without a baffle the return stream can run straight to the suction, so part "
@@ -342,19 +234,8 @@ def tank_sizing(tank_volume: float, flow: float, application: str, working_level
     return result
 
 
-def _dwell_verdict(result: Result, where: str, dwell: float, air_release: float) -> None:
-    at = (Q(dwell, _MIN), Q(air_release, _MIN))
-    lead = "At the " + where + " the oil stays "
-    if dwell >= DWELL_OK_RATIO * air_release:
-        result.add("ok", COMMON_PRACTICE,
-                   lead + "{0} in the tank, at least its air-release time of {1}.", *at)
-    elif dwell >= DWELL_ACT_RATIO * air_release:
-        result.add("watch", COMMON_PRACTICE,
-                   lead + "{0}, less than its air-release time of {1}: some air goes back to the "
-                   "pump; keep the level up, fit a baffle and a return diffuser, or use an oil "
-                   "with better air release.", *at)
-    else:
-        result.add("act", COMMON_PRACTICE,
-                   lead + "only {0}, under half its air-release time of {1}: aerated oil goes "
-                   "back to the pump; raise the level, fit a bigger tank or baffles and a "
-                   "diffuser, slow the return, or use an oil with better air release.", *at)
+def _grade_dwell(result: Result, where: str, dwell: float, air_release: float) -> None:
+    result.grade(dwell, DWELL_BANDS, COMMON_PRACTICE, where=Q(where, "text"), dwell=Q(dwell, _MIN),
+                 air_release=Q(air_release, _MIN),
+                 ok_dwell=Q(DWELL_OK_RATIO * air_release, _MIN),
+                 act_dwell=Q(DWELL_ACT_RATIO * air_release, _MIN))

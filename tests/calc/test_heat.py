@@ -4,11 +4,13 @@ import math
 
 import pytest
 
-from calc.methods.convection import STEFAN_BOLTZMANN, air_properties, radiation_coefficient
+from calc.kernel.constants import STEFAN_BOLTZMANN
+from calc.methods.convection import air_properties, radiation_coefficient
 from calc.kernel.errors import InputError
-from calc.tools.heat import (heat_capacity_kj_per_k, heat_load_from_power_kw,
-                       heat_load_from_throttle_kw, shed_kw, steady_temperature_c, tank_heat,
-                       tank_surfaces, time_to_temperature_min)
+from calc.methods.heat import (heat_capacity_kj_per_k, heat_load_from_power_kw,
+                               heat_load_from_throttle_kw, shed_kw, steady_temperature_c,
+                               tank_surfaces, time_to_temperature_min)
+from calc.tools.heat import tank_heat
 
 DEFAULTS = dict(load_from="power", power=7.5, efficiency=80.0, flow=60.0, dp=150.0,
                 shape="rectangular", length=1200.0, width=800.0, height=700.0, diameter=800.0,

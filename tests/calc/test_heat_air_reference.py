@@ -7,7 +7,8 @@ import pytest
 chemicals = pytest.importorskip("chemicals")
 from chemicals import air as lemmon  # noqa: E402
 
-from calc.methods.convection import AIR_1ATM, KELVIN, air_properties  # noqa: E402
+from calc.kernel.constants import ZERO_CELSIUS_K as KELVIN  # noqa: E402
+from calc.methods.convection import AIR_1ATM, air_properties  # noqa: E402
 
 ATM_PA = 101325.0
 

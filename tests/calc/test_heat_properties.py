@@ -5,7 +5,8 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import assume, given, settings, strategies as st  # noqa: E402
 
-from calc.tools.heat import shed_kw, tank_heat, tank_surfaces  # noqa: E402
+from calc.methods.heat import shed_kw, tank_surfaces  # noqa: E402
+from calc.tools.heat import tank_heat  # noqa: E402
 
 tanks = st.fixed_dictionaries({
     "shape": st.sampled_from(["rectangular", "vertical", "horizontal"]),

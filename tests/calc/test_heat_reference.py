@@ -4,7 +4,8 @@ import pytest
 
 ht = pytest.importorskip("ht")
 
-from calc.methods.convection import (GRAVITY, KELVIN, air_properties, convection_coefficient,  # noqa: E402
+from calc.kernel.constants import STANDARD_GRAVITY as GRAVITY, ZERO_CELSIUS_K as KELVIN  # noqa: E402
+from calc.methods.convection import (air_properties, convection_coefficient,  # noqa: E402
                              nu_horizontal_cylinder, nu_plate_cold_side_up, nu_plate_hot_side_up,
                              nu_vertical_plate)
 

@@ -5,9 +5,10 @@ import math
 import pytest
 
 from calc import bridge
-from calc.tools.lines import (HOSE_SIZES, bore_for_velocity, colebrook_friction, darcy_drop_bar,
-                        friction_factor, line_velocity, line_velocity_tool, next_hose_size,
-                        reynolds_number, velocity_range)
+from calc.methods.lines import (HOSE_SIZES, bore_for_velocity, colebrook_friction,
+                               darcy_drop_bar, friction_factor, line_velocity, next_hose_size,
+                               reynolds_number)
+from calc.tools.lines import velocity_in_line, velocity_range
 
 
 def test_hand_checked_velocity():
@@ -73,14 +74,14 @@ def test_darcy_drop_by_hand():
 
 
 def test_tool_flags_a_fast_suction_line():
-    result = line_velocity_tool(100.0, 25.0, "suction", 0.0)
+    result = velocity_in_line(100.0, 25.0, "suction", 0.0)
     assert result.level == "act"
     assert result.values["bore_needed"] == pytest.approx(bore_for_velocity(100.0, 1.2))
     assert result.values["hose_velocity"] <= 1.2
 
 
 def test_tool_target_velocity_sizes_the_bore():
-    result = line_velocity_tool(100.0, 25.0, "pressure", 160.0, target=3.0)
+    result = velocity_in_line(100.0, 25.0, "pressure", 160.0, target=3.0)
     assert line_velocity(100.0, result.values["bore_needed"]) == pytest.approx(3.0)
     assert result.values["hose_bore"] >= result.values["bore_needed"]
 

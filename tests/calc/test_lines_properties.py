@@ -7,8 +7,8 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
-from calc.tools.lines import (bore_for_velocity, friction_factor, line_velocity,  # noqa: E402
-                        next_hose_size)
+from calc.methods.lines import (bore_for_velocity, friction_factor, line_velocity,  # noqa: E402
+                               next_hose_size)
 
 flows = st.floats(min_value=0.1, max_value=20000.0)
 bores = st.floats(min_value=1.0, max_value=600.0)

@@ -5,7 +5,7 @@ import pytest
 fluids = pytest.importorskip("fluids")
 from fluids.friction import friction_factor as fluids_friction  # noqa: E402
 
-from calc.tools.lines import friction_factor  # noqa: E402
+from calc.methods.lines import friction_factor  # noqa: E402
 
 
 @pytest.mark.parametrize("re", [1.0, 10.0, 100.0, 640.0, 1500.0, 2000.0])

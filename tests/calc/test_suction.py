@@ -3,9 +3,11 @@
 import pytest
 
 from calc.kernel.errors import InputError
-from calc.tools.lines import line_velocity
-from calc.tools.suction import (G, inlet_pressure_bar, static_head_bar, starving_temperature,
-                          strainer_drop_bar, suction_check)
+from calc.methods.lines import line_velocity
+from calc.kernel.constants import STANDARD_GRAVITY as G
+from calc.methods.suction import (inlet_pressure_bar, static_head_bar, starving_temperature,
+                                  strainer_drop_bar)
+from calc.tools.suction import suction_check
 from calc.methods.viscosity import walther_fit, walther_viscosity
 
 DEFAULTS = dict(flow=100.0, bore=50.0, length=1.5, roughness=0.045, head=0.3, k_sum=1.5,

@@ -6,9 +6,10 @@ import pytest
 
 from calc import bridge
 from calc.kernel.errors import InputError
-from calc.tools.tank import (horizontal_cylinder_level_mm, horizontal_cylinder_volume_l,
-                       level_for_volume_mm, rectangular_volume_l, tank_sizing, tank_volume,
-                       vertical_cylinder_volume_l, volume_at_level_l)
+from calc.methods.tank import (horizontal_cylinder_level_mm, horizontal_cylinder_volume_l,
+                               level_for_volume_mm, rectangular_volume_l,
+                               vertical_cylinder_volume_l, volume_at_level_l)
+from calc.tools.tank import tank_sizing, tank_volume
 
 
 def test_prisms_are_exact_by_formula():
@@ -109,7 +110,7 @@ def test_mobile_range_is_smaller():
 def test_low_level_raises_the_verdict_and_asks_to_keep_it_up():
     result = tank_sizing(500.0, 100.0, "industrial", 80.0, 3.0, "yes", low_level=25.0)
     assert result.level == "act"  # 1.25 min against 3 min air release: under half
-    messages = " ".join(v.message.template for v in result.verdicts)
+    messages = " ".join(v.message.render(lambda value, q: str(value)) for v in result.verdicts)
     assert "low level" in messages and "Keep the level above" in messages
 
 

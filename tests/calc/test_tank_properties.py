@@ -5,7 +5,8 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
-from calc.tools.tank import depth_mm, level_for_volume_mm, tank_sizing, volume_at_level_l  # noqa: E402
+from calc.methods.tank import depth_mm, level_for_volume_mm, volume_at_level_l  # noqa: E402
+from calc.tools.tank import tank_sizing  # noqa: E402
 
 dims = st.floats(min_value=50.0, max_value=20000.0)
 shapes = st.sampled_from(["rectangular", "vertical", "horizontal"])

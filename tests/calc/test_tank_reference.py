@@ -5,7 +5,7 @@ import pytest
 fluids = pytest.importorskip("fluids")
 from fluids.geometry import TANK  # noqa: E402
 
-from calc.tools.tank import level_for_volume_mm, volume_at_level_l  # noqa: E402
+from calc.methods.tank import level_for_volume_mm, volume_at_level_l  # noqa: E402
 
 
 @pytest.mark.parametrize("level_m", [0.0, 0.01, 0.25, 0.5, 0.73, 0.99, 1.0])
