@@ -11,7 +11,8 @@ from __future__ import annotations
 from ..kernel.grading import Band
 from ..kernel.registry import Field, Output
 from ..kernel.result import COMMON_PRACTICE, Q, Result
-from ..tools import cleanliness
+from ..methods.cleanliness import TOP_SCALE, check_code_order, worst_excess
+from ..tools.cleanliness import COMPONENT_CHOICES, target_code
 from .scoreboard import MODERATE, STRONG, WEAK, Cause, Check, Scoreboard, Symptom, checklist
 
 CAUSES = (
@@ -109,7 +110,7 @@ CODE_BASIS = COMMON_PRACTICE + ", target codes from memory (as in the iso-4406 t
 
 
 def _code_field(key: str, label: str) -> Field:
-    return Field(key, label, "count", None, min=0.0, max=float(cleanliness.TOP_SCALE),
+    return Field(key, label, "count", None, min=0.0, max=float(TOP_SCALE),
                  optional=True, help="One number of the code, e.g. 18 in 18/16/13; blank if "
                                      "the lab gives none for this size.")
 
@@ -119,7 +120,7 @@ def _code(code_4, code_6, code_14):
     code = (code_4, code_6, code_14)
     if all(c is None for c in code):
         return None
-    cleanliness.check_code_order(code, "code_6")
+    check_code_order(code, "code_6")
     return code
 
 
@@ -132,7 +133,7 @@ def _code(code_4, code_6, code_14):
     symptoms=SYMPTOMS,
     readings=(
         Field("component", "Most dirt-sensitive component", "choice", "piston",
-              choices=cleanliness.COMPONENT_CHOICES, group="machine"),
+              choices=COMPONENT_CHOICES, group="machine"),
         Field("pressure", "Working pressure", "pressure", None, min=0.0, max=1000.0,
               optional=True, group="machine",
               help="Above 140 bar the target is stricter; blank: up to 140 bar."),
@@ -156,8 +157,8 @@ def checklist_contamination(board: Scoreboard, found: Result, component, pressur
                             code_6, code_14):
     """Rank the ways dirt gets into the oil from the ticked SYMPTOMS and the cleanliness code."""
     code = _code(code_4, code_6, code_14)
-    target = cleanliness.target_code(component, 0.0 if pressure is None else pressure)
-    over = None if code is None else cleanliness.worst_excess(code, target)
+    target = target_code(component, 0.0 if pressure is None else pressure)
+    over = None if code is None else worst_excess(code, target)
     found.values["target"] = "/".join(str(t) for t in target)
     found.values["steps_over"] = None if over is None else float(over)
     if over is None:

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from ..kernel.registry import Field, Output
 from ..kernel.result import Q, Result
+from ..methods.air import stiffness_loss_pct
 from ..tools import air
 from .scoreboard import (AGAINST, MODERATE, STRONG, WEAK, Cause, Check, Scoreboard, Symptom,
                          checklist)
@@ -108,27 +109,12 @@ SYMPTOMS = (
 
 # Common practice, from memory: well-deaerated oil in service carries well under 1 % air by
 # volume; from about 1 % the column turns noticeably soft at low and medium pressure. Used
-# when no working pressure is entered; with one, the stiffness loss of calc.air decides.
+# when no working pressure is entered; with one, the stiffness loss decides.
 AIR_WATCH_PCT = 1.0
 # Common practice: below about 15 degC most hydraulic oils are several times thicker than at
 # working temperature; above 30 degC cold oil is not the cause.
 COLD_C = 15.0
 WARM_C = 30.0
-
-def stiffness_loss_pct(air_pct: float, pressure_bar: float) -> float:
-    """Loss of stiffness [%] of oil holding `air_pct` free air (at atmospheric) at a gauge pressure.
-
-    loss = 100 (1 - K_eff / K_oil), with the air compressed isothermally to the working
-    pressure and K_eff from the mixture rule of calc.air (1/K = (1-x)/K_oil + x/p).
-
-    >>> round(stiffness_loss_pct(1.0, 10.0), 1)
-    57.4
-
-    Source: calc.air (Boyle's law and the mixture rule, Merritt 1967, from memory).
-    """
-    p_abs = pressure_bar + air.P_ATM_BAR
-    x = air.air_fraction_at_pressure(air_pct / 100.0, p_abs)
-    return 100.0 * (1.0 - air.effective_bulk_modulus(air.K_OIL_BAR, x, p_abs) / air.K_OIL_BAR)
 
 
 def _score_air(board: Scoreboard, air_content, pressure):

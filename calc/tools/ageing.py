@@ -1,28 +1,6 @@
-"""Oil oxidation life against temperature, life used by a temperature profile, and the
-remaining life from a trend of oxidation-reserve readings.
-
-Mineral oil oxidises faster when hotter. The trade's rule: the rate doubles for
-every 10 K, so the life halves (common practice, sometimes credited to Arrhenius
-and to van 't Hoff):
-
-    L(T) = L_ref * 2 ** ((T_ref - T) / step)                       step = 10 K
-
-The Arrhenius form with an activation energy Ea
-
-    L(T) = L_ref * exp(Ea / R * (1 / T - 1 / T_ref))                T in kelvin
-
-agrees with the doubling rule at T_ref in value and slope when
-Ea = R * T_ref**2 * ln 2 / step; away from T_ref the two part slowly.
-
-Life used by hours h_i at temperatures T_i is a Miner-style sum of the hours
-weighted by the rate at each temperature, equivalent hours at T_ref:
-
-    H_eq = sum(h_i * L_ref / L(T_i))         fraction used = H_eq / L_ref
-
-Sources: doubling per 10 K, common practice; Arrhenius equation (IUPAC Gold Book,
-"Arrhenius equation"); gas constant CODATA 2018 (exact since the 2019 SI);
-condemning limit of 25 % of new-oil RPVOT from ASTM D4378 guidance for turbine oils,
-from memory.
+"""The oil-life tools: oxidation life against temperature and the life a temperature profile
+has used (calc.methods.ageing), and the remaining life from a trend of oxidation-reserve
+readings against its watch and condemning levels.
 """
 
 from __future__ import annotations
@@ -32,108 +10,13 @@ from functools import partial
 
 from ..kernel import chart, units
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import AGEING, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
-
-KELVIN = 273.15
-GAS_CONSTANT = 8.314462618  # J/(mol K), CODATA 2018, exact
-DOUBLING_STEP_K = 10.0  # common practice
-
-
-def life_doubling(temp_c: float, ref_life_h: float, ref_temp_c: float,
-                  step_k: float = DOUBLING_STEP_K) -> float:
-    """Life [h] at `temp_c` [degC] when it halves for every `step_k` [K] of heat.
-
-    L = ref_life_h * 2 ** ((ref_temp_c - temp_c) / step_k)
-
-    >>> life_doubling(70.0, 10000.0, 60.0), life_doubling(50.0, 10000.0, 60.0)
-    (5000.0, 20000.0)
-
-    Source: common practice (rate doubles per 10 K).
-    """
-    return ref_life_h * 2.0 ** ((ref_temp_c - temp_c) / step_k)
-
-
-def activation_energy_for_doubling(ref_temp_c: float, step_k: float = DOUBLING_STEP_K) -> float:
-    """Activation energy [J/mol] whose Arrhenius rate has the doubling rule's slope at T_ref.
-
-    Ea = R * T_ref**2 * ln 2 / step_k, T_ref in kelvin.
-
-    >>> round(activation_energy_for_doubling(60.0) / 1000.0, 2)
-    63.96
-    """
-    t_ref = ref_temp_c + KELVIN
-    return GAS_CONSTANT * t_ref ** 2 * math.log(2.0) / step_k
-
-
-def life_arrhenius(temp_c: float, ref_life_h: float, ref_temp_c: float,
-                   activation_j_mol: float) -> float:
-    """Life [h] at `temp_c` [degC] for an Arrhenius rate of activation energy [J/mol].
-
-    L = ref_life_h * exp(Ea / R * (1 / T - 1 / T_ref)), T in kelvin.
-
-    >>> round(life_arrhenius(70.0, 10000.0, 60.0, activation_energy_for_doubling(60.0)))
-    5102
-
-    Source: Arrhenius equation (IUPAC Gold Book).
-    """
-    exponent = activation_j_mol / GAS_CONSTANT * (1.0 / (temp_c + KELVIN) - 1.0 / (ref_temp_c + KELVIN))
-    return ref_life_h * math.exp(exponent)
-
-
-def equivalent_hours(profile: list[tuple[float, float]], ref_temp_c: float, life_at) -> float:
-    """Hours at `ref_temp_c` that age the oil as much as `profile` [(hours, degC), ...].
-
-    `life_at(temp_c, ref_life_h)` is the life model; the sum is Miner-style.
-
-    >>> model = lambda t, life: life_doubling(t, life, 60.0)
-    >>> equivalent_hours([(1000.0, 70.0), (1000.0, 50.0)], 60.0, model)
-    2500.0
-    """
-    return sum(hours * 1.0 / life_at(temp_c, 1.0) for hours, temp_c in profile)
-
-
-def equivalent_temperature_doubling(total_h: float, equivalent_h: float, ref_temp_c: float,
-                                    step_k: float = DOUBLING_STEP_K) -> float:
-    """Steady temperature [degC] that ages the oil as much as the profile (doubling rule).
-
-    T_eq = T_ref + step * log2(H_eq / H_total)
-
-    >>> equivalent_temperature_doubling(1000.0, 2000.0, 60.0)
-    70.0
-    """
-    return ref_temp_c + step_k * math.log2(equivalent_h / total_h)
-
-
-def equivalent_temperature_arrhenius(total_h: float, equivalent_h: float, ref_temp_c: float,
-                                     activation_j_mol: float) -> float:
-    """Steady temperature [degC] that ages the oil as much as the profile (Arrhenius).
-
-    1 / T_eq = 1 / T_ref - R / Ea * ln(H_eq / H_total)
-
-    >>> round(equivalent_temperature_arrhenius(1000.0, 1000.0, 60.0, 64000.0), 6)
-    60.0
-    """
-    inverse = 1.0 / (ref_temp_c + KELVIN) - GAS_CONSTANT / activation_j_mol * math.log(equivalent_h / total_h)
-    return 1.0 / inverse - KELVIN
-
-
-def hours_to_limit(reserve_now: float, reserve_before: float, interval_h: float,
-                   limit: float) -> float | None:
-    """Hours from now until a falling reading reaches `limit`, by a straight line.
-
-    rate = (before - now) / interval;  hours = (now - limit) / rate.
-    None when the reading is not falling; 0 when it is already at or below the limit.
-
-    >>> hours_to_limit(62.0, 80.0, 2000.0, 25.0)
-    4111.111111111111
-    """
-    if reserve_now <= limit:
-        return 0.0
-    rate = (reserve_before - reserve_now) / interval_h
-    if rate <= 0.0:
-        return None
-    return (reserve_now - limit) / rate
+from ..methods.ageing import (DOUBLING_STEP_K, activation_energy_for_doubling,
+                              equivalent_hours, equivalent_temperature_arrhenius,
+                              equivalent_temperature_doubling, hours_to_limit, life_arrhenius,
+                              life_doubling)
 
 
 # Demo figure for the form, not a property of any oil: a reference life at 60 degC.
@@ -273,7 +156,7 @@ def oxidation_life(ref_life: float, ref_temp: float, temp: float, method: str, s
             else equivalent_temperature_arrhenius(total, eq_h, ref_temp, activation_j))
     result = Result(values=values)
     result.charts["life"] = partial(life_chart, ref_life, ref_temp, temp, doubling, arrhenius)
-    _life_used_verdict(result, used, eq_h, ref_life)
+    result.grade(used, LIFE_USED_BANDS, COMMON_PRACTICE, equivalent=Q(eq_h, _H), life=Q(ref_life, _H))
     speed = ref_life / model(temp, ref_life)
     result.note("At {0} the oil ages {1} times as fast as at {2}.",
                 Q(temp, _T), Q(speed, "ratio"), Q(ref_temp, _T))
@@ -296,21 +179,35 @@ def oxidation_life(ref_life: float, ref_temp: float, temp: float, method: str, s
     return result
 
 
-def _life_used_verdict(result: Result, used: float, eq_h: float, ref_life: float) -> None:
-    if used >= 1.0:
-        result.add("act", COMMON_PRACTICE,
-                   "The profile has used all of the reference life ({0} equivalent of {1}): "
-                   "have the oil tested (oxidation reserve, acid number, viscosity) before "
-                   "trusting it further.", Q(eq_h, _H), Q(ref_life, _H))
-    elif used >= 0.75:
-        result.add("watch", COMMON_PRACTICE,
-                   "The profile has used over three quarters of the reference life ({0} "
-                   "equivalent of {1}): sample the oil and plan the change.",
-                   Q(eq_h, _H), Q(ref_life, _H))
-    else:
-        result.add("ok", COMMON_PRACTICE,
-                   "The profile has used less than three quarters of the reference life ({0} "
-                   "equivalent of {1}).", Q(eq_h, _H), Q(ref_life, _H))
+# The share of the reference life a profile has used (common practice).
+LIFE_USED_BANDS = (
+    Band("act", "The profile has used all of the reference life ({equivalent} equivalent of "
+                "{life}): have the oil tested (oxidation reserve, acid number, viscosity) before "
+                "trusting it further.", at_least=1.0),
+    Band("watch", "The profile has used over three quarters of the reference life "
+                  "({equivalent} equivalent of {life}): sample the oil and plan the change.",
+         at_least=0.75),
+    Band("ok", "The profile has used less than three quarters of the reference life "
+               "({equivalent} equivalent of {life})."),
+)
+# The oxidation reserve against its condemning limit (ASTM D4378 guidance, from memory) and
+# its watch level (common practice); a limit reached before the next sample is a finding too.
+_CONDEMNED = Band("act", "The reserve is {now} of new, at or below the condemning limit of "
+                         "{limit}: plan the oil change now and check the acid number and for "
+                         "varnish.", at_most="limit", basis=FROM_MEMORY)
+RESERVE_BANDS = (
+    _CONDEMNED,
+    Band("watch", "The reserve is {now} of new, at or below the watch level of {watch}: sample "
+                  "more often and look for heat, air and water that speed oxidation.",
+         at_most="watch"),
+    Band("ok", "The reserve is {now} of new, above the watch level of {watch}."),
+)
+RESERVE_BANDS_LIMIT_SOON = (
+    _CONDEMNED,
+    Band("watch", "At this rate the reserve reaches the condemning limit of {limit} in "
+                  "{to_limit}, before the next sample at the same interval: sample sooner and "
+                  "plan the change."),
+)
 
 
 @tool(
@@ -355,25 +252,10 @@ def oxidation_trend(new_value: float, reserve_before: float, reserve_now: float,
         "hours_to_watch": to_watch,
         "hours_to_limit": to_limit,
     })
-    pct = lambda v: Q(v, "percent")  # noqa: E731
-    if now_pct <= limit_pct:
-        result.add("act", FROM_MEMORY,
-                   "The reserve is {0} of new, at or below the condemning limit of {1}: plan "
-                   "the oil change now and check the acid number and for varnish.",
-                   pct(now_pct), pct(limit_pct))
-    elif to_limit is not None and to_limit <= interval:
-        result.add("watch", COMMON_PRACTICE,
-                   "At this rate the reserve reaches the condemning limit of {0} in {1}, "
-                   "before the next sample at the same interval: sample sooner and plan the "
-                   "change.", pct(limit_pct), Q(to_limit, _H))
-    elif now_pct <= watch_pct:
-        result.add("watch", COMMON_PRACTICE,
-                   "The reserve is {0} of new, at or below the watch level of {1}: sample more "
-                   "often and look for heat, air and water that speed oxidation.",
-                   pct(now_pct), pct(watch_pct))
-    else:
-        result.add("ok", COMMON_PRACTICE, "The reserve is {0} of new, above the watch level "
-                   "of {1}.", pct(now_pct), pct(watch_pct))
+    soon = to_limit is not None and to_limit <= interval
+    result.grade(now_pct, RESERVE_BANDS_LIMIT_SOON if soon else RESERVE_BANDS, COMMON_PRACTICE,
+                 now=Q(now_pct, "percent"), limit=Q(limit_pct, "percent"),
+                 watch=Q(watch_pct, "percent"), to_limit=Q(to_limit, _H))
     if to_limit is None:
         result.note("The reading is not falling between the two samples, so no end date can "
                     "be drawn; check that both were tested the same way.")

@@ -1,41 +1,17 @@
-"""Entrained air and the stiffness of the oil column: "spongy controls" in numbers.
-
-Air bubbles in oil act as soft springs in series with the oil. With x the volume
-fraction of free air at the pressure p (absolute):
-
-    1 / K_eff = (1 - x) / K_oil + x / K_air         (mixture rule, series compliance)
-    K_air = n * p       n = 1 isothermal (slow), n = 1.4 adiabatic (fast, air)
-
-A fraction x0 measured at atmospheric pressure p0 shrinks as the oil is pressed
-along a path p V^m = const (oil at constant tangent modulus K_oil):
-
-    V_air = x0 (p0 / p)^(1/m)      V_oil = (1 - x0) exp(-(p - p0) / K_oil)
-    x = V_air / (V_air + V_oil)
-
-At a steady working pressure the air has settled to the oil's temperature, so
-its fraction there is the isothermal one (m = 1) whatever the process; n = 1.4
-then applies to fast changes about that pressure. The column pressed from
-atmospheric to a load follows m = n. Along such a path the tangent modulus
--V dp/dV is exactly the mixture rule with m = n, so the column's volume change
-from p0 to p1 is the closed form V0 - (V_air + V_oil) at p1. Air that dissolves in the oil under pressure is
-ignored: the bubbles are taken to stay free, the softer (worse) case.
-
-Sources: Boyle's law and the isentropic p V^1.4 = const for air; the mixture rule
-in the form of H. E. Merritt, "Hydraulic Control Systems" (Wiley, 1967), ch. 2
-(from memory); mineral oil's bulk modulus about 16 000 bar, from memory.
+"""The air-stiffness tool: the entrained-air mixture rule of calc.methods.air at the working
+pressure, and how far a cylinder gives under its load because of the air.
 """
 
 from __future__ import annotations
 
-import math
-
+from ..kernel.constants import ATMOSPHERE_ROUNDED_BAR
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import AIR, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
+from ..methods.air import (GAS_EXPONENTS, K_OIL_BAR, air_fraction_at_pressure, column_compression,
+                           effective_bulk_modulus, load_pressure_bar, piston_area_mm2)
 
-K_OIL_BAR = 16000.0  # air-free mineral hydraulic oil, about 14 000 to 18 000 bar: from memory
-P_ATM_BAR = 1.013  # standard atmosphere 1.01325 bar (ISO 2533), rounded
-GAS_EXPONENTS = {"isothermal": 1.0, "adiabatic": 1.4}  # air, ratio of specific heats 1.4
 PROCESS_CHOICES = (("isothermal", "Slow (isothermal)"), ("adiabatic", "Fast (adiabatic)"))
 LOAD_PRESSURE_MAX_BAR = 1000.0
 # Verdict thresholds, common practice (a judgement, from memory): loss of stiffness at the
@@ -47,72 +23,25 @@ _P = "pressure"
 _MM = "length"
 _PCT = "percent"
 
-
-def air_fraction_at_pressure(x0: float, p_abs_bar: float, p0_abs_bar: float = P_ATM_BAR,
-                             n: float = 1.0, k_oil_bar: float = K_OIL_BAR) -> float:
-    """Volume fraction of free air at `p_abs_bar` from `x0` measured at `p0_abs_bar` (absolute).
-
-    x = x0 (p0/p)^(1/n) / (x0 (p0/p)^(1/n) + (1 - x0) exp(-(p - p0) / K_oil))
-
-    n : exponent of the compression path p V^n = const: 1 for air settled at the oil's
-        temperature (isothermal, Boyle), 1.4 for a fast squeeze (adiabatic)
-
-    >>> round(air_fraction_at_pressure(0.01, 101.3, 1.013), 6)
-    0.000102
-    """
-    air = x0 * (p0_abs_bar / p_abs_bar) ** (1.0 / n)
-    oil = (1.0 - x0) * math.exp(-(p_abs_bar - p0_abs_bar) / k_oil_bar)
-    return air / (air + oil)
-
-
-def effective_bulk_modulus(k_oil_bar: float, air_fraction: float, p_abs_bar: float,
-                           n: float = 1.0) -> float:
-    """Bulk modulus [bar] of oil holding `air_fraction` of free air at `p_abs_bar` (absolute).
-
-    1 / K_eff = (1 - x) / K_oil + x / (n p)
-
-    >>> round(effective_bulk_modulus(16000.0, 0.01, 100.0, 1.4), 1)
-    7501.7
-    >>> effective_bulk_modulus(16000.0, 0.0, 100.0)
-    16000.0
-
-    Source: mixture rule as in Merritt (1967), from memory.
-    """
-    return 1.0 / ((1.0 - air_fraction) / k_oil_bar + air_fraction / (n * p_abs_bar))
-
-
-def column_compression(volume: float, x0: float, p0_abs_bar: float, p1_abs_bar: float,
-                       n: float = 1.0, k_oil_bar: float = K_OIL_BAR) -> float:
-    """Volume lost [same unit as `volume`] when a column with air fraction `x0` at `p0` is pressed to `p1`.
-
-    dV = V0 - V0 [x0 (p0/p1)^(1/n) + (1 - x0) exp(-(p1 - p0) / K_oil)]
-
-    >>> round(column_compression(1.0, 0.0, 1.0, 161.0, 1.0, 16000.0), 6)
-    0.00995
-    >>> round(column_compression(1.0, 0.01, 1.0, 2.0, 1.0, 1.0e12), 6)
-    0.005
-    """
-    air = x0 * (p0_abs_bar / p1_abs_bar) ** (1.0 / n)
-    oil = (1.0 - x0) * math.exp(-(p1_abs_bar - p0_abs_bar) / k_oil_bar)
-    return volume * (1.0 - air - oil)
-
-
-def piston_area_mm2(bore_mm: float) -> float:
-    """pi/4 d^2 [mm^2].
-
-    >>> round(piston_area_mm2(100.0))
-    7854
-    """
-    return math.pi / 4.0 * bore_mm ** 2
-
-
-def load_pressure_bar(load_kn: float, bore_mm: float) -> float:
-    """Pressure [bar] under a piston of `bore_mm` carrying `load_kn` [kN]: F / A.
-
-    >>> round(load_pressure_bar(100.0, 100.0), 2)
-    127.32
-    """
-    return load_kn * 1000.0 / piston_area_mm2(bore_mm) * 10.0  # N/mm^2 = MPa = 10 bar
+NO_AIR_BANDS = (
+    Band("ok", "With no free air the column is as stiff as the oil itself; its give under the "
+               "load is {give_free}."),
+)
+# The loss of stiffness at the working pressure (common practice, from memory); the air's
+# extra give counts as a finding too once it is as large as the oil's own.
+_ACT_LOSS = Band("act", "{air} of air makes the oil {loss} softer at {pressure}: expect spongy, "
+                        "lagging and unsteady motion; find where air gets in (suction leaks, "
+                        "return above the oil level, low level), let the oil de-aerate, and "
+                        "bleed the circuit.", at_least=LOSS_ACT_PCT)
+_WATCH_LOSS = ("{air} of air makes the oil {loss} softer at {pressure} and adds {extra} of give to "
+               "the cylinder (air-free: {give_free}): look for where the air gets in.")
+LOSS_BANDS = (
+    _ACT_LOSS,
+    Band("watch", _WATCH_LOSS, at_least=LOSS_WATCH_PCT),
+    Band("ok", "{air} of air makes the oil {loss} softer at {pressure} and adds {extra} of give to "
+               "the cylinder."),
+)
+LOSS_BANDS_MUCH_GIVE = (_ACT_LOSS, Band("watch", _WATCH_LOSS))
 
 
 @tool(
@@ -133,7 +62,8 @@ def load_pressure_bar(load_kn: float, bore_mm: float) -> float:
         Field("k_oil", "Bulk modulus of air-free oil", _P, K_OIL_BAR, min=1000.0, max=50000.0,
               help="About 16 000 bar for mineral oil (from memory); water glycols and esters "
                    "differ: use the oil maker's figure."),
-        Field("atmosphere", "Atmospheric pressure (absolute)", _P, P_ATM_BAR, min=0.5, max=1.1),
+        Field("atmosphere", "Atmospheric pressure (absolute)", _P, ATMOSPHERE_ROUNDED_BAR, min=0.5,
+              max=1.1),
         Field("bore", "Cylinder bore", _MM, 100.0, min=5.0, max=2000.0),
         Field("stroke", "Oil column length (stroke)", _MM, 500.0, min=1.0, max=20000.0,
               help="Length of the oil column under the piston: the full stroke when extended."),
@@ -177,24 +107,14 @@ def air_stiffness(air: float, pressure: float, process: str, k_oil: float, atmos
         "stiffness_loss": loss, "load_pressure": p_load, "lost_motion": give,
         "lost_motion_air_free": give_free, "lost_motion_air": give - give_free,
     })
-    at = (Q(air, _PCT), Q(pressure, _P), Q(loss, _PCT), Q(give - give_free, _MM), Q(give_free, _MM))
+    extra = give - give_free
+    named = dict(air=Q(air, _PCT), pressure=Q(pressure, _P), loss=Q(loss, _PCT),
+                 extra=Q(extra, _MM), give_free=Q(give_free, _MM))
     if x0 == 0.0:
-        result.add("ok", COMMON_PRACTICE,
-                   "With no free air the column is as stiff as the oil itself; its give under "
-                   "the load is {4}.", *at)
-    elif loss >= LOSS_ACT_PCT:
-        result.add("act", COMMON_PRACTICE,
-                   "{0} of air makes the oil {2} softer at {1}: expect spongy, lagging and "
-                   "unsteady motion; find where air gets in (suction leaks, return above the "
-                   "oil level, low level), let the oil de-aerate, and bleed the circuit.", *at)
-    elif loss >= LOSS_WATCH_PCT or give - give_free >= give_free:
-        result.add("watch", COMMON_PRACTICE,
-                   "{0} of air makes the oil {2} softer at {1} and adds {3} of give to the "
-                   "cylinder (air-free: {4}): look for where the air gets in.", *at)
+        result.grade(loss, NO_AIR_BANDS, COMMON_PRACTICE, **named)
     else:
-        result.add("ok", COMMON_PRACTICE,
-                   "{0} of air makes the oil {2} softer at {1} and adds {3} of give to the "
-                   "cylinder.", *at)
+        result.grade(loss, LOSS_BANDS_MUCH_GIVE if extra >= give_free else LOSS_BANDS,
+                     COMMON_PRACTICE, **named)
     if p_load > pressure:
         result.note("The load needs {0}, more than the working pressure {1}: the cylinder "
                     "cannot hold or lift it.", Q(p_load, _P), Q(pressure, _P))

@@ -18,51 +18,15 @@ Limits (all editable on the form, each with its basis):
 
 from __future__ import annotations
 
-from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields, \
-    worst_excess
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import AGEING, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Result
+from ..methods.cleanliness import worst_excess
+from ..methods.condition import acid_number_rise, viscosity_change_pct
+from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields
 
 _KV, _PCT, _AN, _PPM = "kinematic_viscosity", "percent", "acid_number", "ppm"
-
-
-def level_rising(value: float, watch: float, act: float) -> str:
-    """ok / watch / act for a reading that is bad when high; reaching a limit counts.
-
-    >>> level_rising(0.29, 0.3, 0.5), level_rising(0.3, 0.3, 0.5), level_rising(0.5, 0.3, 0.5)
-    ('ok', 'watch', 'act')
-    """
-    return "act" if value >= act else "watch" if value >= watch else "ok"
-
-
-def level_falling(value: float, watch: float, act: float) -> str:
-    """ok / watch / act for a reading that is bad when low; reaching a limit counts.
-
-    >>> level_falling(50.1, 50.0, 25.0), level_falling(50.0, 50.0, 25.0), level_falling(25.0, 50.0, 25.0)
-    ('ok', 'watch', 'act')
-    """
-    return "act" if value <= act else "watch" if value <= watch else "ok"
-
-
-def viscosity_change_pct(kv40_now_cst: float, kv40_new_cst: float) -> float:
-    """Change of KV40 from the new oil [%]: (now - new) / new * 100.
-
-    Rounded to 1e-9 % so that a reading exactly on a limit stays on it.
-
-    >>> viscosity_change_pct(50.6, 46.0), viscosity_change_pct(41.4, 46.0)
-    (10.0, -10.0)
-    """
-    return round((kv40_now_cst - kv40_new_cst) / kv40_new_cst * 100.0, 9)
-
-
-def acid_number_rise(an_now: float, an_new: float) -> float:
-    """Rise of the acid number over the new oil [mg KOH/g], rounded to 1e-9 as above.
-
-    >>> acid_number_rise(0.6, 0.3)
-    0.3
-    """
-    return round(an_now - an_new, 9)
 
 
 def _limit(key: str, label: str, quantity: str, default: float, low: float, high: float,
@@ -70,12 +34,54 @@ def _limit(key: str, label: str, quantity: str, default: float, low: float, high
     return Field(key, label, quantity, default, min=low, max=high, help=basis)
 
 
-_VISC_ACTIONS = {
-    "up": "check for a top-up with a heavier oil, oxidation (compare acid number) or water "
-          "emulsion",
-    "down": "check for a top-up with a lighter oil, fuel or solvent, or shear of the "
-            "viscosity improver",
-}
+# Each reading against its watch and act limits (typed on the form, so named); reaching a
+# limit counts. Viscosity moves either way, each with its own likely causes.
+_UP = ("check for a top-up with a heavier oil, oxidation (compare acid number) or water "
+       "emulsion")
+_DOWN = ("check for a top-up with a lighter oil, fuel or solvent, or shear of the viscosity "
+         "improver")
+_VISC_OK = Band("ok", "Viscosity {kv40} is within {change} of the new oil's {new}.")
+VISCOSITY_UP_BANDS = (
+    Band("act", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {act}): "
+                + _UP + "; change the oil or correct the mix.", at_least="act"),
+    Band("watch", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {watch}): "
+                  + _UP + "; resample and trend it.", at_least="watch"),
+    _VISC_OK,
+)
+VISCOSITY_DOWN_BANDS = (
+    Band("act", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {act}): "
+                + _DOWN + "; change the oil or correct the mix.", at_least="act"),
+    Band("watch", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {watch}): "
+                  + _DOWN + "; resample and trend it.", at_least="watch"),
+    _VISC_OK,
+)
+ACID_BANDS = (
+    Band("act", "Acid number has risen {value} (act at {act}): the oil is oxidised or "
+                "contaminated; plan an oil change and look for varnish and the cause of the "
+                "heat.", at_least="act"),
+    Band("watch", "Acid number has risen {value} (watch at {watch}): the oil is oxidising; check "
+                  "for heat, air and water, and test the oxidation reserve.", at_least="watch"),
+    Band("ok", "Acid number has risen {value}, below the watch limit {watch}."),
+)
+WATER_BANDS = (
+    Band("act", "Water {value} (act at {act}): find and stop the entry (cooler leak, washdown, "
+                "breather) and dry the oil with a dehydrator or change it.", at_least="act"),
+    Band("watch", "Water {value} (watch at {watch}): check breathers, coolers and seals, and "
+                  "drain free water from the tank bottom.", at_least="watch"),
+    Band("ok", "Water {value} is below the watch limit {watch}."),
+)
+RESERVE_BANDS = (
+    Band("act", "Oxidation reserve {value} of new (act at {act}): the antioxidant is nearly "
+                "spent; plan the oil change and flush if there is varnish.", at_most="act",
+         basis=FROM_MEMORY),
+    Band("watch", "Oxidation reserve {value} of new (watch at {watch}): sample more often; the "
+                  "oxidation-trend tool estimates when it reaches the limit.", at_most="watch"),
+    Band("ok", "Oxidation reserve {value} of new is above the watch level {watch}."),
+)
+
+
+def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
+    return {"value": Q(value, quantity), "watch": Q(watch, quantity), "act": Q(act, quantity)}
 
 
 @tool(
@@ -150,23 +156,22 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                             "excess": None, "findings": "0"})
     change = viscosity_change_pct(kv40, kv40_new)
     result.values["visc_change"] = change
-    _viscosity_verdict(result, change, kv40, kv40_new, visc_watch, visc_act)
+    result.grade(abs(change), VISCOSITY_UP_BANDS if change > 0 else VISCOSITY_DOWN_BANDS,
+                 COMMON_PRACTICE, kv40=Q(kv40, _KV), new=Q(kv40_new, _KV),
+                 change=Q(abs(change), _PCT), watch=Q(visc_watch, _PCT), act=Q(visc_act, _PCT))
     if an_new is not None:
         rise = acid_number_rise(an_now, an_new)
         result.values["an_rise"] = rise
-        _limit_verdict(result, level_rising(rise, an_watch, an_act), _ACID_TEXT, _AN, rise,
-                       an_watch, an_act, basis=FROM_MEMORY)
+        result.grade(rise, ACID_BANDS, FROM_MEMORY, **_limits(_AN, rise, an_watch, an_act))
     if ppm is not None:
-        _limit_verdict(result, level_rising(ppm, water_watch, water_act), _WATER_TEXT, _PPM, ppm,
-                       water_watch, water_act)
+        result.grade(ppm, WATER_BANDS, COMMON_PRACTICE,
+                     **_limits(_PPM, ppm, water_watch, water_act))
     if has_code:
         result.values["excess"] = excess_text(worst_excess(code, target))
         add_cleanliness_verdict(result, code, target)
     if reserve is not None:
-        _limit_verdict(result, level_falling(reserve, reserve_watch, reserve_act),
-                       _RESERVE_TEXT, _PCT, reserve, reserve_watch, reserve_act,
-                       act_basis=FROM_MEMORY)
-
+        result.grade(reserve, RESERVE_BANDS, COMMON_PRACTICE,
+                     **_limits(_PCT, reserve, reserve_watch, reserve_act))
     result.verdicts.sort(key=lambda v: -LEVELS.index(v.level))  # most urgent first
     result.values["level"] = result.level
     result.values["findings"] = str(sum(v.level != "ok" for v in result.verdicts))
@@ -181,51 +186,3 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                        "ISO 4406 code vs target: common practice",
                        "Oxidation reserve limits: ASTM D4378 guidance, from memory"]
     return result
-
-
-def _viscosity_verdict(result: Result, change: float, kv40: float, kv40_new: float,
-                       watch: float, act: float) -> None:
-    level = level_rising(abs(change), watch, act)
-    args = (Q(kv40, _KV), Q(kv40_new, _KV), Q(abs(change), _PCT))
-    if level == "ok":
-        result.add("ok", COMMON_PRACTICE, "Viscosity {0} is within {2} of the new oil's {1}.",
-                   *args)
-        return
-    direction = "up" if change > 0 else "down"
-    limit = Q(act if level == "act" else watch, _PCT)
-    what = "change the oil or correct the mix" if level == "act" else "resample and trend it"
-    result.add(level, COMMON_PRACTICE,
-               "Viscosity {0} has moved {2} from the new oil's {1} (limit {3}): "
-               f"{_VISC_ACTIONS[direction]}; {what}.", *args, limit)
-
-
-# Verdict sentences per level; {0} the reading, {1} the watch limit, {2} the act limit.
-_ACID_TEXT = {
-    "ok": "Acid number has risen {0}, below the watch limit {1}.",
-    "watch": "Acid number has risen {0} (watch at {1}): the oil is oxidising; check for heat, "
-             "air and water, and test the oxidation reserve.",
-    "act": "Acid number has risen {0} (act at {2}): the oil is oxidised or contaminated; plan "
-           "an oil change and look for varnish and the cause of the heat.",
-}
-_WATER_TEXT = {
-    "ok": "Water {0} is below the watch limit {1}.",
-    "watch": "Water {0} (watch at {1}): check breathers, coolers and seals, and drain free "
-             "water from the tank bottom.",
-    "act": "Water {0} (act at {2}): find and stop the entry (cooler leak, washdown, breather) "
-           "and dry the oil with a dehydrator or change it.",
-}
-_RESERVE_TEXT = {
-    "ok": "Oxidation reserve {0} of new is above the watch level {1}.",
-    "watch": "Oxidation reserve {0} of new (watch at {1}): sample more often; the "
-             "oxidation-trend tool estimates when it reaches the limit.",
-    "act": "Oxidation reserve {0} of new (act at {2}): the antioxidant is nearly spent; plan "
-           "the oil change and flush if there is varnish.",
-}
-
-
-def _limit_verdict(result: Result, level: str, texts: dict, quantity: str, value: float,
-                   watch: float, act: float, basis: str = COMMON_PRACTICE,
-                   act_basis: str | None = None) -> None:
-    """One verdict at `level` from a reading's sentence table."""
-    result.add(level, act_basis if level == "act" and act_basis else basis, texts[level],
-               Q(value, quantity), Q(watch, quantity), Q(act, quantity))

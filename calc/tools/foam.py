@@ -27,6 +27,7 @@ from __future__ import annotations
 from typing import NamedTuple
 
 from ..kernel.errors import InputError
+from ..kernel.grading import Band
 from ..kernel.registry import AIR, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 
@@ -131,51 +132,69 @@ def foam_patterns(sequences, air_release_min: float | None, limits: FoamLimits,
     return tuple(found)
 
 
-def _sequence_verdicts(result: Result, sequences, limits: FoamLimits, basis: str) -> None:
+# Each sequence against the grade's limits: foam that stays is a contaminant, tall foam that
+# breaks a lost antifoam; the limits themselves are the grade's (LIMITS_BASIS) or the oil's own.
+STABILITY_BANDS = (
+    Band("act", "Sequence {sequence}: {stability} of foam still standing after settling, "
+                "against {limit} allowed: the foam does not break, look for a contaminant.",
+         over="limit"),
+)
+TENDENCY_BANDS = (
+    Band("watch", "Sequence {sequence}: foam tendency {tendency}, above the {limit} allowed.",
+         over="limit"),
+)
+SEQUENCE_OK_BANDS = (
+    Band("ok", "Sequence {sequence}: foam within the grade's limits.", at_most=0.0),
+)
+AIR_RELEASE_BANDS = (
+    Band("act", "Air release {air_release} against {limit} allowed for {grade}: air stays in the "
+                "oil and makes controls spongy and pumps noisy.", over="limit"),
+    Band("ok", "Air release {air_release}, within the {limit} allowed for {grade}."),
+)
+# What to do about what the readings point to (common practice), worst first.
+ADVICE = {
+    "contamination": ("act", "Find what got into the oil (grease, engine oil, cleaner, water); "
+                             "correct the cause, then drain, flush and refill, do not just top "
+                             "up."),
+    "antifoam-lost": ("watch", "Check what was topped up and whether very fine filtration or "
+                               "ageing took the antifoam out; ask the oil supplier before dosing "
+                               "any additive."),
+    "antifoam-overdose": ("act", "Good foam numbers with a long air release is typical of too "
+                                 "much antifoam: do not add more; ask the oil supplier, partial "
+                                 "oil change."),
+    "slow-air-release": ("act", "The oil holds air: check for contamination, ageing and mixed "
+                                "oils with a full lab analysis."),
+    "mechanical": ("watch", "The oil passes its tests, so the air comes from the machine: check "
+                            "the suction side for leaks, the return line ends below the lowest "
+                            "oil level, and the tank's dwell time."),
+}
+
+
+def _grade_sequences(result: Result, sequences, limits: FoamLimits, basis: str) -> None:
     for name, tendency, stability, t_limit in sequences:
-        over_t = tendency is not None and tendency > t_limit
-        over_s = stability is not None and stability > limits.stability
-        if over_s:
-            result.add("act", basis,
-                       f"Sequence {name}: {{0}} of foam still standing after settling, against "
-                       "{1} allowed: the foam does not break, look for a contaminant.",
-                       Q(stability, _ML), Q(limits.stability, _ML))
-        if over_t:
-            result.add("watch", basis,
-                       f"Sequence {name}: foam tendency {{0}}, above the {{1}} allowed.",
-                       Q(tendency, _ML), Q(t_limit, _ML))
-        if not (over_t or over_s):
-            result.add("ok", basis, f"Sequence {name}: foam within the grade's limits.")
+        sequence = Q(name, "text")
+        excess = []
+        if stability is not None:
+            result.grade(stability, STABILITY_BANDS, basis, sequence=sequence,
+                         stability=Q(stability, _ML), limit=Q(limits.stability, _ML))
+            excess.append(stability - limits.stability)
+        if tendency is not None:
+            result.grade(tendency, TENDENCY_BANDS, basis, sequence=sequence,
+                         tendency=Q(tendency, _ML), limit=Q(t_limit, _ML))
+            excess.append(tendency - t_limit)
+        result.grade(max(excess), SEQUENCE_OK_BANDS, basis, sequence=sequence)
 
 
-def _pattern_verdicts(result: Result, patterns, air_release_min, limits: FoamLimits,
-                      grade: str, basis: str) -> None:
+def _grade_patterns(result: Result, patterns, air_release_min, limits: FoamLimits,
+                    grade: str, basis: str) -> None:
     if air_release_min is not None:
-        if air_release_min > limits.air_release_min:
-            result.add("act", basis,
-                       f"Air release {{0}} against {{1}} allowed for {grade}: air stays in the "
-                       "oil and makes controls spongy and pumps noisy.",
-                       Q(air_release_min, _MIN), Q(limits.air_release_min, _MIN))
-        else:
-            result.add("ok", basis, f"Air release {{0}}, within the {{1}} allowed for {grade}.",
-                       Q(air_release_min, _MIN), Q(limits.air_release_min, _MIN))
-    advice = {
-        "contamination": "Find what got into the oil (grease, engine oil, cleaner, water); "
-                         "correct the cause, then drain, flush and refill, do not just top up.",
-        "antifoam-lost": "Check what was topped up and whether very fine filtration or ageing "
-                         "took the antifoam out; ask the oil supplier before dosing any additive.",
-        "antifoam-overdose": "Good foam numbers with a long air release is typical of too much "
-                             "antifoam: do not add more; ask the oil supplier, partial oil change.",
-        "slow-air-release": "The oil holds air: check for contamination, ageing and mixed oils "
-                            "with a full lab analysis.",
-        "mechanical": "The oil passes its tests, so the air comes from the machine: check the "
-                      "suction side for leaks, the return line ends below the lowest oil level, "
-                      "and the tank's dwell time.",
-    }
+        result.grade(air_release_min, AIR_RELEASE_BANDS, basis,
+                     air_release=Q(air_release_min, _MIN), limit=Q(limits.air_release_min, _MIN),
+                     grade=Q(grade, "text"))
     for key in patterns:
-        if key in advice:
-            level = "watch" if key in ("mechanical", "antifoam-lost") else "act"
-            result.add(level, COMMON_PRACTICE, advice[key])
+        if key in ADVICE:
+            level, says = ADVICE[key]
+            result.add(level, COMMON_PRACTICE, says)
 
 
 def _foam_field(key: str, label: str) -> Field:
@@ -250,8 +269,8 @@ def foam_air_tests(grade: str, air_release: float | None = None,
         "stability_limit": limits.stability,
         "limits_basis": basis,
     })
-    _sequence_verdicts(result, sequences, limits, basis)
-    _pattern_verdicts(result, patterns, air_release, limits, grade, basis)
+    _grade_sequences(result, sequences, limits, basis)
+    _grade_patterns(result, patterns, air_release, limits, grade, basis)
     if not patterns:
         result.note(f"Enter the lab's foam and air-release results to read them against the "
                     f"limits shown for {grade}.")

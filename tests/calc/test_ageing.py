@@ -4,10 +4,11 @@ import math
 
 import pytest
 
-from calc.tools.ageing import (GAS_CONSTANT, KELVIN, activation_energy_for_doubling, equivalent_hours,
-                         equivalent_temperature_arrhenius, equivalent_temperature_doubling,
-                         hours_to_limit, life_arrhenius, life_doubling, oxidation_life,
-                         oxidation_trend)
+from calc.kernel.constants import GAS_CONSTANT, ZERO_CELSIUS_K as KELVIN
+from calc.methods.ageing import (activation_energy_for_doubling, equivalent_hours,
+                                 equivalent_temperature_arrhenius, equivalent_temperature_doubling,
+                                 hours_to_limit, life_arrhenius, life_doubling)
+from calc.tools.ageing import oxidation_life, oxidation_trend
 from calc.kernel.errors import InputError
 
 

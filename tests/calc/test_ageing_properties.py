@@ -5,7 +5,7 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, strategies as st  # noqa: E402
 
-from calc.tools.ageing import equivalent_hours, equivalent_temperature_doubling, life_doubling  # noqa: E402
+from calc.methods.ageing import equivalent_hours, equivalent_temperature_doubling, life_doubling  # noqa: E402
 
 rows = st.lists(st.tuples(st.floats(min_value=0.0, max_value=1e5),
                           st.floats(min_value=-40.0, max_value=200.0)), min_size=1, max_size=4)

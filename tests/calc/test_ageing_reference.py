@@ -6,7 +6,8 @@ import pytest
 
 fluids_constants = pytest.importorskip("fluids.constants")
 
-from calc.tools.ageing import GAS_CONSTANT, activation_energy_for_doubling  # noqa: E402
+from calc.kernel.constants import GAS_CONSTANT  # noqa: E402
+from calc.methods.ageing import activation_energy_for_doubling  # noqa: E402
 
 
 def test_gas_constant_matches_codata():

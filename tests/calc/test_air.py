@@ -5,8 +5,9 @@ import math
 import pytest
 
 from calc import bridge
-from calc.tools.air import (air_fraction_at_pressure, air_stiffness, column_compression,
-                      effective_bulk_modulus, load_pressure_bar)
+from calc.methods.air import (air_fraction_at_pressure, column_compression, effective_bulk_modulus,
+                              load_pressure_bar)
+from calc.tools.air import air_stiffness
 from calc.kernel.errors import InputError
 
 DEFAULTS = dict(air=1.0, pressure=160.0, process="isothermal", k_oil=16000.0, atmosphere=1.013,

@@ -5,7 +5,8 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import assume, given, strategies as st  # noqa: E402
 
-from calc.tools.air import LOAD_PRESSURE_MAX_BAR, air_stiffness, load_pressure_bar  # noqa: E402
+from calc.methods.air import load_pressure_bar  # noqa: E402
+from calc.tools.air import LOAD_PRESSURE_MAX_BAR, air_stiffness  # noqa: E402
 
 cases = st.fixed_dictionaries({
     "air": st.floats(min_value=0.0, max_value=50.0),

@@ -3,10 +3,11 @@
 import pytest
 
 from calc import bridge
-from calc.tools.cleanliness import (ABOVE_TABLE, SCALE_TABLE, beta_efficiency_pct, code_excess,
-                              downstream_count, excess_level, filter_beta, format_code,
-                              iso4406_code, iso_4406, parse_code, scale_number, scale_range,
-                              target_code)
+from calc.kernel.grading import pick
+from calc.methods.cleanliness import (ABOVE_TABLE, SCALE_TABLE, beta_efficiency_pct, code_excess,
+                                      downstream_count, format_code, iso4406_code, parse_code,
+                                      scale_number, scale_range, worst_excess)
+from calc.tools.cleanliness import CLEANLINESS_BANDS, filter_beta, iso_4406, target_code
 from calc.kernel.errors import InputError
 
 
@@ -133,9 +134,12 @@ def test_targets_by_component_follow_sensitivity():
 def test_excess_levels():
     # Common practice: cleaner or equal ok, one code over watch, two or more act.
     assert code_excess((19, 16, None), (18, 16, 13)) == (1, 0, None)
-    assert excess_level((-2, -1, 0)) == "ok"
-    assert excess_level((1, 1, 1)) == "watch"
-    assert excess_level((0, 0, 2)) == "act"
+    def level(excess):
+        return pick(max(excess), CLEANLINESS_BANDS).level
+    assert level((-2, -1, 0)) == "ok"
+    assert level((1, 1, 1)) == "watch"
+    assert level((0, 0, 2)) == "act"
+    assert worst_excess((19, 16, None), (18, 16, 13)) == 1
 
 
 @pytest.mark.parametrize("counts, level", [

@@ -5,7 +5,7 @@ import pytest
 hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, strategies as st  # noqa: E402
 
-from calc.tools.cleanliness import SCALE_TABLE, format_code, parse_code, scale_number, scale_range  # noqa: E402
+from calc.methods.cleanliness import SCALE_TABLE, format_code, parse_code, scale_number, scale_range  # noqa: E402
 
 
 @given(st.floats(min_value=0.0, max_value=2.5e6))

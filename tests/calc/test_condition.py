@@ -3,7 +3,9 @@
 import pytest
 
 from calc import bridge
-from calc.tools.condition import level_falling, level_rising, oil_condition, viscosity_change_pct
+from calc.kernel.grading import pick
+from calc.methods.condition import viscosity_change_pct
+from calc.tools.condition import RESERVE_BANDS, VISCOSITY_UP_BANDS, oil_condition
 from calc.kernel.errors import InputError
 
 
@@ -105,6 +107,8 @@ def test_bridge_with_a_lab_report():
     assert answer["verdicts"][0]["level"] == "act"
 
 
-def test_level_helpers_boundaries():
-    assert level_rising(10.0, 5.0, 10.0) == "act" and level_rising(4.999, 5.0, 10.0) == "ok"
-    assert level_falling(25.0, 50.0, 25.0) == "act" and level_falling(50.0001, 50.0, 25.0) == "ok"
+def test_band_boundaries_reaching_a_limit_counts():
+    rising = lambda v: pick(v, VISCOSITY_UP_BANDS, {"watch": 5.0, "act": 10.0}).level  # noqa: E731
+    falling = lambda v: pick(v, RESERVE_BANDS, {"watch": 50.0, "act": 25.0}).level  # noqa: E731
+    assert rising(10.0) == "act" and rising(4.999) == "ok"
+    assert falling(25.0) == "act" and falling(50.0001) == "ok"

@@ -3,8 +3,8 @@
 import pytest
 
 from calc import bridge
-from calc.tools.convert import (LINEAR_UNITS, convert, kinematic_from_saybolt,
-                          saybolt_seconds, sus_at_100f, unit_convert)
+from calc.methods.convert import kinematic_from_saybolt, saybolt_seconds, sus_at_100f
+from calc.tools.convert import LINEAR_UNITS, convert, unit_convert
 from calc.kernel.errors import InputError
 
 F100_IN_C = (100.0 - 32.0) * 5.0 / 9.0

@@ -4,7 +4,8 @@ import pytest
 
 viscosity = pytest.importorskip("chemicals.viscosity")
 
-from calc.tools.convert import convert, kinematic_from_saybolt, saybolt_seconds  # noqa: E402
+from calc.methods.convert import kinematic_from_saybolt, saybolt_seconds  # noqa: E402
+from calc.tools.convert import convert  # noqa: E402
 
 F210_IN_C = (210.0 - 32.0) * 5.0 / 9.0
 # ASTM D2161 temperature factor at 210 degF, 1 + 0.000061 (210 - 100) (from memory of the
