@@ -91,7 +91,10 @@ def main(argv: list[str] | None = None) -> int:
         _print_answer(answer, labels)
     else:
         for err in answer["errors"]:
-            print(f"error: {err['field']}: {err['message']}", file=sys.stderr)
+            where = f"{err['field']}: " if err["field"] else ""
+            print(f"error: {where}{err['message']}", file=sys.stderr)
+    if answer.get("bug") and not args.json:
+        print("bug report (please pass it on):\n" + answer["bug"]["traceback"], file=sys.stderr)
     if not answer["ok"]:
         return 2
     if args.svg:

@@ -26,7 +26,8 @@ from .kernel.errors import InputError
 from .kernel.result import Result
 
 BUG_MESSAGE = ("The calculator hit a fault of its own with these inputs (a bug, not your "
-               "reading). Nothing was computed; the bug report is in the log.")
+               "reading). Nothing was computed; please pass on the bug report that comes with "
+               "this message.")
 
 
 def catalogue(system: str = "metric") -> list[dict]:
