@@ -1,5 +1,5 @@
-// Runs the native calc test suite inside Pyodide under Node.js, against the wheel the
-// build ships: the code that ships is the code that was tested.
+// Runs the native calc test suite and calc's doctests inside Pyodide under Node.js, against
+// the wheel the build ships: the code that ships is the code that was tested.
 //
 //   node tests/pyodide/run_calc_tests.mjs WHEEL TEST_WHEEL_DIR [pytest args...]
 //
@@ -19,7 +19,11 @@ if (!wheel || !wheelDir) {
   process.exit(2);
 }
 
-const pyodide = await loadPyodide({ stdout: (s) => console.log(s), stderr: (s) => console.error(s) });
+const pyodide = await loadPyodide();
+// Python's output byte for byte, so that pytest's progress dots stay on their lines.
+const passOn = (stream) => ({ write: (bytes) => { stream.write(Buffer.from(bytes)); return bytes.length; } });
+pyodide.setStdout(passOn(process.stdout));
+pyodide.setStderr(passOn(process.stderr));
 const sitePackages = pyodide.runPython("import site; site.getsitepackages()[0]");
 const install = (path) => pyodide.unpackArchive(new Uint8Array(readFileSync(path)), "wheel",
   { extractDir: sitePackages });
@@ -32,12 +36,15 @@ pyodide.globals.set("pytest_args", pyodide.toPy(pytestArgs));
 const status = await pyodide.runPythonAsync(`
 import os, sys
 os.chdir("/repo")
+from pathlib import Path
 import calc, pytest
-assert calc.__file__.startswith(sys.prefix) or "site-packages" in calc.__file__, calc.__file__
-print("calc from", calc.__file__, "on Python", sys.version.split()[0], sys.platform)
-# --import-mode=importlib keeps /repo off sys.path: calc can only come from the wheel.
+package = Path(calc.__file__).parent
+assert package.is_relative_to(sys.prefix) or "site-packages" in package.parts, package
+print("calc from", package, "on Python", sys.version.split()[0], sys.platform)
+# --import-mode=importlib keeps /repo off sys.path: calc can only come from the wheel, and
+# its doctests are those of the installed package.
 code = pytest.main(["-q", "-p", "no:cacheprovider", "--import-mode=importlib", "--rootdir=/repo",
-                    "-o", "addopts=", "tests/calc", *pytest_args])
+                    "-o", "addopts=", "--doctest-modules", str(package), "tests/calc", *pytest_args])
 int(code)
 `);
 process.exit(status);
