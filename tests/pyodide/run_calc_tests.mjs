@@ -29,9 +29,12 @@ const install = (path) => pyodide.unpackArchive(new Uint8Array(readFileSync(path
   { extractDir: sitePackages });
 for (const name of readdirSync(wheelDir).filter((n) => n.endsWith(".whl"))) install(join(wheelDir, name));
 install(resolve(wheel));
-// The tests are read from the repository as they are; the calc they import is the wheel's.
-pyodide.FS.mkdirTree("/repo/tests");
-pyodide.FS.mount(pyodide.FS.filesystems.NODEFS, { root: join(repo, "tests") }, "/repo/tests");
+// The tests (and the checklist pages some of them read) come from the repository as they
+// are; the calc they import is the wheel's.
+for (const dir of ["tests", "site_src"]) {
+  pyodide.FS.mkdirTree(`/repo/${dir}`);
+  pyodide.FS.mount(pyodide.FS.filesystems.NODEFS, { root: join(repo, dir) }, `/repo/${dir}`);
+}
 pyodide.globals.set("pytest_args", pyodide.toPy(pytestArgs));
 const status = await pyodide.runPythonAsync(`
 import os, sys
