@@ -3,7 +3,7 @@
 //
 //   node tests/pyodide/run_calc_tests.mjs WHEEL TEST_WHEEL_DIR OUTCOMES_JSON [pytest args...]
 //
-// The pinned Pyodide comes from node_modules; pytest and its pure-Python dependencies
+// The pinned Pyodide comes from node_modules; pytest, Hypothesis and their dependencies
 // are unpacked from wheels downloaded by `make` (Pyodide's own package wheels are not
 // reachable offline). Test files that need libraries Pyodide lacks skip themselves.
 // OUTCOMES_JSON receives {passed: [id...], skipped: {id: reason}}, each id as the native
@@ -21,7 +21,8 @@ if (!wheel || !wheelDir || !outcomesFile) {
   process.exit(2);
 }
 
-const pyodide = await loadPyodide();
+// CI chooses Hypothesis's profile (tests/calc/conftest.py) in here as it does natively.
+const pyodide = await loadPyodide({ env: "CI" in process.env ? { CI: process.env.CI } : {} });
 // Python's output byte for byte, so that pytest's progress dots stay on their lines.
 const passOn = (stream) => ({ write: (bytes) => { stream.write(Buffer.from(bytes)); return bytes.length; } });
 pyodide.setStdout(passOn(process.stdout));
@@ -81,6 +82,8 @@ outcomes = Outcomes()
 code = pytest.main(["-q", "-p", "no:cacheprovider", "--import-mode=importlib", "--rootdir=/repo",
                     "-o", "addopts=", "--doctest-modules", str(package), "tests/calc", *pytest_args],
                    plugins=[outcomes])
+hypothesis = sys.modules.get("hypothesis")
+print("Hypothesis profile:", hypothesis and hypothesis.settings.get_current_profile_name())
 int(code), json.dumps({"passed": outcomes.passed, "skipped": outcomes.skipped})
 `)).toJs();
 writeFileSync(outcomesFile, outcomes);
