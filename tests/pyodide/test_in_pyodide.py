@@ -35,8 +35,8 @@ def _shipped_wheel() -> Path:
 
 def _native_ids() -> set[str]:
     """calc's doctests and tests/calc as the native run collects them, from the repository."""
-    run = subprocess.run([sys.executable, "-m", "pytest", "--collect-only", "-q", "calc", "tests/calc"],
-                         cwd=ROOT, capture_output=True, text=True, timeout=300)
+    command = [sys.executable, "-m", "pytest", "--collect-only", "-q", "--doctest-modules", "calc", "tests/calc"]
+    run = subprocess.run(command, cwd=ROOT, capture_output=True, text=True, timeout=300)
     assert run.returncode == 0, run.stdout[-2000:] + run.stderr[-2000:]
     return set(itertools.takewhile(bool, run.stdout.splitlines()))  # the ids, up to a blank line
 
@@ -81,9 +81,9 @@ def test_calc_suite_passes_inside_pyodide(tmp_path):
           f"native-only: {len(native_only)} in {len({i.split('::')[0] for i in native_only})} modules")
     problems = []
     if unexplained := native - native_only - passed:
-        problems.append(_listing("collected natively, but did not pass in Pyodide and is not native-only "
-                                 "(make it run there, or add its import to NATIVE_ONLY_IMPORTS)",
-                                 unexplained, skipped))
+        problems.append(_listing("collected natively, but did not pass in Pyodide and is not "
+                                 "native-only (make it run there, or add its import to "
+                                 "NATIVE_ONLY_IMPORTS)", unexplained, skipped))
     if unknown := passed - native:
         problems.append(_listing("passed in Pyodide, but not collected natively", unknown, {}))
     if ran := passed & native_only:
