@@ -16,8 +16,8 @@ PYTHON312 := $(shell for p in python3.13 python3.12 $$HOME/.pyenv/versions/3.13*
                $$HOME/.pyenv/versions/3.12*/bin/python3 /usr/bin/python3 python3; do \
                command -v $$p >/dev/null 2>&1 && $$p -c 'import sys; sys.exit(sys.version_info < (3, 12))' \
                2>/dev/null && { command -v $$p; break; }; done)
-# Pytest and its pure-Python dependencies, unpacked into Pyodide for the in-Pyodide run.
-PYODIDE_TEST_PACKAGES := pytest pluggy iniconfig packaging pygments
+# Pytest, Hypothesis and their dependencies, unpacked into Pyodide for the in-Pyodide run.
+PYODIDE_TEST_PACKAGES := pytest pluggy iniconfig packaging pygments hypothesis sortedcontainers
 
 setup: $(STAMP) $(NODE_STAMP) $(WHEELS_STAMP)
 
@@ -32,10 +32,9 @@ $(NODE_STAMP): package.json package-lock.json
 	npm ci --no-audit --no-fund
 	touch $@
 
-$(WHEELS_STAMP): $(STAMP)
-	mkdir -p $(WHEELS)
-	$(PY) -m pip download --quiet --no-deps --only-binary=:all: -d $(WHEELS) \
-	  $$($(PY) -c 'import importlib.metadata as m, sys; print(" ".join(f"{p}=={m.version(p)}" for p in sys.argv[1:]))' $(PYODIDE_TEST_PACKAGES))
+$(WHEELS_STAMP): $(STAMP) $(NODE_STAMP) Makefile tests/pyodide/download_wheels.py
+	rm -rf $(WHEELS) && mkdir -p $(WHEELS)
+	$(PY) tests/pyodide/download_wheels.py $(WHEELS) $(PYODIDE_TEST_PACKAGES)
 	touch $@
 
 chromium:
