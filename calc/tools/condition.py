@@ -40,21 +40,22 @@ _UP = ("check for a top-up with a heavier oil, oxidation (compare acid number) o
        "emulsion")
 _DOWN = ("check for a top-up with a lighter oil, fuel or solvent, or shear of the viscosity "
          "improver")
-_VISC_OK = Band("ok", "Viscosity {kv40} is within {change} of the new oil's {new}.")
-VISCOSITY_UP_BANDS = (
-    Band("act", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {act}): "
-                + _UP + "; change the oil or correct the mix.", at_least="act"),
-    Band("watch", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {watch}): "
-                  + _UP + "; resample and trend it.", at_least="watch"),
-    _VISC_OK,
-)
-VISCOSITY_DOWN_BANDS = (
-    Band("act", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {act}): "
-                + _DOWN + "; change the oil or correct the mix.", at_least="act"),
-    Band("watch", "Viscosity {kv40} has moved {change} from the new oil's {new} (limit {watch}): "
-                  + _DOWN + "; resample and trend it.", at_least="watch"),
-    _VISC_OK,
-)
+
+
+def _viscosity_bands(causes: str) -> tuple[Band, ...]:
+    """The viscosity change's bands, for one direction and its likely causes."""
+    moved = "Viscosity {kv40} has moved {change} from the new oil's {new} "
+    return (
+        Band("act", moved + "(limit {act}): " + causes + "; change the oil or correct the mix.",
+             at_least="act"),
+        Band("watch", moved + "(limit {watch}): " + causes + "; resample and trend it.",
+             at_least="watch"),
+        Band("ok", "Viscosity {kv40} is within {change} of the new oil's {new}."),
+    )
+
+
+VISCOSITY_UP_BANDS = _viscosity_bands(_UP)
+VISCOSITY_DOWN_BANDS = _viscosity_bands(_DOWN)
 ACID_BANDS = (
     Band("act", "Acid number has risen {value} (act at {act}): the oil is oxidised or "
                 "contaminated; plan an oil change and look for varnish and the cause of the "
