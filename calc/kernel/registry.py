@@ -209,6 +209,9 @@ class Output:
     headline : one of the few values shown beside the verdict (the answer at a glance)
     tracks : the key of the condition quantity (TRACKED) this output measures, so the log
         and the machine page follow it over time whichever tool gave it
+    at_least, at_most : the physical bounds of the value (an absolute pressure is never
+        below zero, a share of a tank never above 100 %); a tool that returns a value past
+        them has a bug
     """
 
     key: str
@@ -217,6 +220,8 @@ class Output:
     help: str = ""
     headline: bool = False
     tracks: str | None = None
+    at_least: float | None = None
+    at_most: float | None = None
 
     def check_declaration(self, where: str) -> None:
         units.quantity(self.quantity)
@@ -262,6 +267,8 @@ class Tool:
     compute: Callable[..., Result]
     kind: str = "tool"
     causes: tuple[Cause, ...] = ()  # a checklist's causes, in the order of its page
+    # Input keys the tool no longer takes, each with what to type instead.
+    retired: tuple[tuple[str, str], ...] = ()
 
     def field(self, key: str) -> Field:
         for f in self.inputs:
@@ -276,7 +283,10 @@ class Tool:
     def parse(self, raw: dict, system: str = "metric") -> dict:
         """All inputs in metric units, every bad field reported at once."""
         unknown = sorted(set(raw) - {f.key for f in self.inputs})
-        errors = [InputError(k, f"is not an input of {self.id}; inputs are "
+        retired = dict(self.retired)
+        errors = [InputError(k, f"is no longer an input of {self.id}: {retired[k]}")
+                  if k in retired else
+                  InputError(k, f"is not an input of {self.id}; inputs are "
                                 f"{', '.join(f.key for f in self.inputs)}") for k in unknown]
         values = {}
         for f in self.inputs:
@@ -299,9 +309,16 @@ class Tool:
         extra = set(result.values) - declared
         if extra:
             raise RuntimeError(f"{self.id} returned undeclared outputs {sorted(extra)}")
-        for key, value in result.values.items():
-            if isinstance(value, float) and not math.isfinite(value):
-                raise RuntimeError(f"{self.id} computed a non-finite {key}")
+        for out in self.outputs:
+            value = result.values.get(out.key)
+            if not isinstance(value, float):
+                continue
+            if not math.isfinite(value):
+                raise RuntimeError(f"{self.id} computed a non-finite {out.key}")
+            if ((out.at_least is not None and value < out.at_least)
+                    or (out.at_most is not None and value > out.at_most)):
+                raise RuntimeError(f"{self.id} computed {out.key} = {value!r}, outside its "
+                                   f"physical bounds")
 
     def describe(self, system: str = "metric") -> dict:
         return {
@@ -349,6 +366,9 @@ def register(found: Tool) -> None:
         f.check_declaration(where)
     for o in found.outputs:
         o.check_declaration(where)
+    clash = set(dict(found.retired)) & set(keys)
+    if clash:
+        raise ValueError(f"{where}: retired keys {sorted(clash)} are still inputs")
     if not found.headline:
         raise ValueError(f"{where}: no output is marked as the headline")
     known = _TOOLS.get(found.id)
@@ -358,11 +378,16 @@ def register(found: Tool) -> None:
 
 
 def tool(tool_id: str, *, title: str, summary: str, topic: Topic,
-         inputs: tuple[Field, ...], outputs: tuple[Output, ...]):
-    """Declare the decorated function as the tool `tool_id`; its parameters are the inputs."""
+         inputs: tuple[Field, ...], outputs: tuple[Output, ...],
+         retired: dict[str, str] | None = None):
+    """Declare the decorated function as the tool `tool_id`; its parameters are the inputs.
+
+    `retired` names input keys the tool no longer takes, each with what to type instead.
+    """
     def declare(fn: Callable[..., Result]) -> Callable[..., Result]:
         check_signature(tool_id, fn, [f.key for f in inputs])
-        register(Tool(tool_id, title, summary, topic, tuple(inputs), tuple(outputs), fn))
+        register(Tool(tool_id, title, summary, topic, tuple(inputs), tuple(outputs), fn,
+                      retired=tuple((retired or {}).items())))
         return fn
 
     return declare

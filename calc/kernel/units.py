@@ -74,6 +74,8 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
              to_us=lambda k: k * 9.0 / 5.0, to_metric=lambda f: f * 5.0 / 9.0, decimals=1),
     _quantity("kinematic_viscosity", "cSt"),
     _quantity("pressure", "bar", "psi", PSI_IN_BAR, digits=4),
+    # An absolute pressure: shown in the same units, known to calc as never below zero.
+    _quantity("absolute_pressure", "bar", "psi", PSI_IN_BAR, digits=4),
     _quantity("pressure_kpa", "kPa", "psi", PSI_IN_BAR * 100.0),
     _quantity("volume", "L", "US gal", GAL_IN_L, digits=4),
     _quantity("volume_ml", "mL", "US fl oz", GAL_IN_L * 1000.0 / 128.0),

@@ -3,16 +3,17 @@
 Energy balance from the oil surface in the tank (at rest, at atmospheric
 pressure) to the pump inlet (absolute pressures):
 
-    p_inlet = p_atm + rho g h - (1 + K + f L / D) rho v^2 / 2 - dp_strainer
+    p_inlet = p_atm + rho g h - (alpha + K(Re) + f L / D) rho v^2 / 2 - dp_strainer
 
 h is the height of the lowest working oil level above the inlet (negative when
-the pump lifts the oil), the 1 is the velocity head the oil gains, K the sum of
-the fittings' loss factors (entry, elbows, valves), f the Darcy friction factor
-of the line (calc.methods.lines: 64/Re laminar, Colebrook turbulent). The oil's
-viscosity at each temperature comes from its ASTM D341 line (calc.methods.viscosity).
+the pump lifts the oil), alpha the kinetic-energy factor of the velocity head the oil
+gains (2 laminar, 1 turbulent), K(Re) the sum of the fittings' loss factors by Hooper's
+2-K method (calc.methods.fittings), f the Darcy friction factor of the line (Churchill,
+calc.methods.lines). The oil's viscosity at each temperature comes from its ASTM D341
+line (calc.methods.viscosity).
 
 Sources: Darcy-Weisbach and Bernoulli (any fluid mechanics text); standard
-gravity 9.806 65 m/s^2 (CGPM 1901).
+gravity 9.806 65 m/s^2 (CGPM 1901); Hooper (1981); Churchill (1977).
 """
 
 from __future__ import annotations
@@ -21,12 +22,11 @@ from typing import Callable
 
 from ..kernel.constants import STANDARD_GRAVITY
 from ..kernel.solve import bisect
+from .fittings import Fitting, fittings_k, kinetic_energy_factor
 from .lines import darcy_drop_bar, dynamic_pressure_bar, friction_factor, line_velocity, reynolds_number
 
-
-SCAN_LOW_C = -40.0  # coldest temperature searched for starving
-
-
+# The coldest temperature searched for starving, and the step of the search.
+SCAN_LOW_C = -40.0
 SCAN_STEP_K = 1.0
 
 
@@ -55,18 +55,25 @@ def strainer_drop_bar(rated_bar: float, kv_cst: float, rated_kv_cst: float, mode
 
 def inlet_pressure_bar(atmosphere_bar: float, head_m: float, density_kgm3: float,
                        flow_lpm: float, bore_mm: float, length_m: float, roughness_mm: float,
-                       k_sum: float, kv_cst: float, strainer_bar: float) -> float:
-    """Absolute pressure [bar] at the pump inlet.
+                       fittings: tuple[Fitting, ...], kv_cst: float, strainer_bar: float) -> float:
+    """Absolute pressure [bar] at the pump inlet, as the energy balance gives it.
 
-    p = p_atm + rho g h - (1 + K + f L / D) rho v^2 / 2 - dp_strainer
+    p = p_atm + rho g h - (alpha + K(Re) + f L / D) rho v^2 / 2 - dp_strainer
 
-    >>> round(inlet_pressure_bar(1.013, 0.3, 870.0, 100.0, 50.0, 1.5, 0.045, 1.5, 23.0, 0.05), 4)
-    0.9775
+    A result at or below zero means the line cannot bring this flow at all: the oil column
+    breaks long before (see the suction-check tool).
+
+    >>> from calc.methods.fittings import ENTRANCE_SHARP, ELBOW_90
+    >>> fittings = (Fitting(1, *ENTRANCE_SHARP, entrance=True), Fitting(2, *ELBOW_90))
+    >>> round(inlet_pressure_bar(1.013, 0.3, 870.0, 100.0, 50.0, 1.5, 0.045, fittings, 23.0, 0.05), 4)
+    0.9707
     """
     velocity = line_velocity(flow_lpm, bore_mm)
-    f = friction_factor(reynolds_number(velocity, bore_mm, kv_cst), roughness_mm / bore_mm)
+    re = reynolds_number(velocity, bore_mm, kv_cst)
+    f = friction_factor(re, roughness_mm / bore_mm)
     line_loss = (darcy_drop_bar(f, length_m, bore_mm, density_kgm3, velocity)
-                 + (1.0 + k_sum) * dynamic_pressure_bar(density_kgm3, velocity))
+                 + (kinetic_energy_factor(re) + fittings_k(fittings, re, bore_mm))
+                 * dynamic_pressure_bar(density_kgm3, velocity))
     return atmosphere_bar + static_head_bar(density_kgm3, head_m) - line_loss - strainer_bar
 
 

@@ -30,10 +30,11 @@ def test_next_hose_is_never_faster_than_the_target(flow, target):
 
 
 @settings(max_examples=200)
-@given(st.floats(min_value=4000.0, max_value=1e8), st.floats(min_value=0.0, max_value=0.05),
+@given(st.floats(min_value=5000.0, max_value=1e8), st.floats(min_value=0.0, max_value=0.05),
        st.floats(min_value=1.01, max_value=10.0))
 def test_turbulent_friction_falls_with_re_and_rises_with_roughness(re, ed, factor):
-    # Moody chart shape (Colebrook): f falls with Re at fixed roughness, rises with roughness.
+    # Moody chart shape: f falls with Re at fixed roughness, rises with roughness. Churchill's
+    # transition hump ends by about Re 4600 on the roughest pipe (e/D 0.05), so from 5000.
     f = friction_factor(re, ed)
     assert 0.005 < f < 0.1
     assert friction_factor(re * factor, ed) <= f * (1.0 + 1e-12)
