@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import operator
 from dataclasses import dataclass
+from decimal import ROUND_HALF_EVEN, Decimal
 
 LEVEL_NAMES = ("ok", "watch", "act")
 _TESTS = (("at_least", operator.ge), ("over", operator.gt), ("at_most", operator.le),
@@ -72,3 +73,29 @@ def pick(value: float, bands: tuple[Band, ...],
         if band.holds(value, limits or {}):
             return band
     return None
+
+
+def stated_decimals(limit: float) -> int:
+    """How many decimals a limit is written with (41.4 has 1, 1100.0 none, 1.98 two).
+
+    >>> stated_decimals(41.4), stated_decimals(1100.0), stated_decimals(1.98)
+    (1, 0, 2)
+    """
+    text = repr(float(limit))
+    if "e" in text or "." not in text:
+        return 0
+    return len(text.split(".")[1].rstrip("0"))
+
+
+def as_stated(value: float, limit: float) -> float:
+    """`value` rounded to the precision `limit` is written with, before the two are compared.
+
+    The rounding method of ASTM E29: a reading of 50.6000000001 is inside a limit written
+    50.6, and an exact half goes to the even digit. A standard's limit is compared this way,
+    so that a value the standard would call on the limit is not called over it.
+
+    >>> as_stated(50.6000000001, 50.6), as_stated(50.65, 50.6), as_stated(50.75, 50.6)
+    (50.6, 50.6, 50.8)
+    """
+    places = Decimal(1).scaleb(-stated_decimals(limit))
+    return float(Decimal(repr(float(value))).quantize(places, rounding=ROUND_HALF_EVEN))

@@ -202,6 +202,10 @@ def _parse_flag(raw: object, key: str) -> bool:
     raise InputError(key, f"is a tick box: yes or no, not {str(raw).strip()!r}")
 
 
+# The least value a quantity can physically take, whatever the tool.
+PHYSICAL_FLOORS = {"temperature": ABSOLUTE_ZERO_C, "absolute_pressure": 0.0}
+
+
 @dataclass(frozen=True)
 class Output:
     """One shown result of a tool.
@@ -222,6 +226,15 @@ class Output:
     tracks: str | None = None
     at_least: float | None = None
     at_most: float | None = None
+
+    @property
+    def bounds(self) -> tuple[float | None, float | None]:
+        """The physical bounds of this output: its own, else its quantity's (no temperature
+        at or below absolute zero, no absolute pressure below zero)."""
+        low = self.at_least
+        if low is None and self.quantity in PHYSICAL_FLOORS:
+            low = PHYSICAL_FLOORS[self.quantity]
+        return low, self.at_most
 
     def check_declaration(self, where: str) -> None:
         units.quantity(self.quantity)
@@ -315,8 +328,8 @@ class Tool:
                 continue
             if not math.isfinite(value):
                 raise RuntimeError(f"{self.id} computed a non-finite {out.key}")
-            if ((out.at_least is not None and value < out.at_least)
-                    or (out.at_most is not None and value > out.at_most)):
+            low, high = out.bounds
+            if (low is not None and value < low) or (high is not None and value > high):
                 raise RuntimeError(f"{self.id} computed {out.key} = {value!r}, outside its "
                                    f"physical bounds")
 

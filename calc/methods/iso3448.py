@@ -1,7 +1,8 @@
 """ISO 3448 viscosity grades: the table and the grade a KV40 falls in.
 
-Kept apart from the grade tools (calc.grades) because calc.viscosity needs the
-table too, and calc.grades builds on calc.viscosity.
+A KV40 is read against a grade's limits as the standard writes them: rounded to their
+precision first (ASTM E29's rounding method), so 50.6 cSt is inside VG 46 however it was
+computed.
 
 Source: ISO 3448:1992, "Industrial liquid lubricants — ISO viscosity
 classification", Table 1.
@@ -10,6 +11,8 @@ classification", Table 1.
 from __future__ import annotations
 
 import math
+
+from ..kernel.grading import as_stated
 
 # ISO 3448:1992, Table 1: (grade, mid-point KV40 [cSt], lower limit, upper limit); limits are
 # the mid-point -10 % and +10 %.
@@ -60,11 +63,11 @@ def nearest_grade(kv40_cst: float) -> tuple[str, float]:
 def grade_containing(kv40_cst: float) -> str | None:
     """The grade whose +-10 % limits hold `kv40_cst` [cSt], or None between grades.
 
-    >>> grade_containing(50.0), grade_containing(55.0)
-    ('VG 46', None)
+    >>> grade_containing(50.0), grade_containing(55.0), grade_containing(50.6000000000001)
+    ('VG 46', None, 'VG 46')
     """
     for name, _, low, high in ISO_VG_GRADES:
-        if low <= kv40_cst <= high:
+        if low <= as_stated(kv40_cst, low) <= high:
             return name
     return None
 

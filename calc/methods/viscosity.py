@@ -154,22 +154,26 @@ def check_two_points(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: fl
                                    "viscosity (an oil thins as it warms)")
 
 
-def kv40_from_reading(kv_cst: float, temp_c: float, vi: float) -> tuple[float, float]:
+def kv40_from_reading(kv_cst: float, temp_c: float, vi: float) -> tuple[float, float | None]:
     """(KV40, KV100) [cSt] of the oil of viscosity index `vi` that reads `kv_cst` [cSt] at
     `temp_c` [degC].
 
     The oil's D341 line through (40 °C, KV40) and (100 °C, KV100) must pass through the
     reading, and (KV40, KV100) must have the given VI by ASTM D2270: solved for KV100.
-    InputError naming "kv" when no oil in D2270's range (KV100 >= 2 cSt) fits.
+    A reading at 40 °C is the KV40 itself; its KV100 is None where D2270 has none (an oil
+    that thin would fall below 2 cSt at 100 °C). Elsewhere InputError naming "kv" when no
+    oil in D2270's range (KV100 >= 2 cSt) fits.
 
     >>> [round(v, 2) for v in kv40_from_reading(20.62, 60.0, 100.0)]
     [46.16, 6.77]
+    >>> kv40_from_reading(2.2, 40.0, 100.0)
+    (2.2, None)
     """
     if temp_c == 40.0:
         try:
             return kv_cst, kv100_from_vi(kv_cst, vi)
-        except InputError as err:
-            raise InputError("kv" if err.field == "kv40" else err.field, err.message) from None
+        except InputError:
+            return kv_cst, None
 
     def excess(kv100: float) -> float:
         a, b = walther_fit(40.0, kv40_from_vi(kv100, vi), 100.0, kv100)

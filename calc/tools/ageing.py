@@ -191,7 +191,8 @@ LIFE_USED_BANDS = (
                "({equivalent} equivalent of {life})."),
 )
 # The oxidation reserve against its condemning limit (ASTM D4378 guidance, from memory) and
-# its watch level (common practice); a limit reached before the next sample is a finding too.
+# its watch level (common practice), now and by the next sample at the present rate: a level
+# crossed before the next sample is acted on now, not found late.
 _CONDEMNED = Band("act", "The reserve is {now} of new, at or below the condemning limit of "
                          "{limit}: plan the oil change now and check the acid number and for "
                          "varnish.", at_most="limit", basis=FROM_MEMORY)
@@ -200,13 +201,19 @@ RESERVE_BANDS = (
     Band("watch", "The reserve is {now} of new, at or below the watch level of {watch}: sample "
                   "more often and look for heat, air and water that speed oxidation.",
          at_most="watch"),
-    Band("ok", "The reserve is {now} of new, above the watch level of {watch}."),
+    Band("ok", "The reserve is {now} of new, above the watch level of {watch}, and stays above it "
+               "past the next sample in {next_sample}."),
 )
 RESERVE_BANDS_LIMIT_SOON = (
     _CONDEMNED,
-    Band("watch", "At this rate the reserve reaches the condemning limit of {limit} in "
-                  "{to_limit}, before the next sample at the same interval: sample sooner and "
-                  "plan the change."),
+    Band("act", "At this rate the reserve reaches the condemning limit of {limit} in {to_limit}, "
+                "before the next sample in {next_sample}: plan the oil change now and sample "
+                "sooner."),
+)
+RESERVE_BANDS_WATCH_SOON = RESERVE_BANDS[:2] + (
+    Band("watch", "At this rate the reserve reaches the watch level of {watch} in {to_watch}, "
+                  "before the next sample in {next_sample}: sample sooner and look for heat, air "
+                  "and water that speed oxidation."),
 )
 
 
@@ -228,6 +235,8 @@ RESERVE_BANDS_LIMIT_SOON = (
         Field("limit_pct", "Condemning limit, % of new", "percent", 25.0, min=1.0, max=95.0,
               help="25 % of new: common practice for turbine oils (ASTM D4378, from memory)."),
         Field("watch_pct", "Watch level, % of new", "percent", 50.0, min=2.0, max=99.0),
+        Field("next_sample", "Hours to the next sample", _H, None, min=1.0, max=1.0e6,
+              optional=True, help="Blank: the same as the hours between the two readings."),
     ),
     outputs=(
         Output("reserve_pct", "Reserve now, % of new", "percent", tracks="oxidation_reserve"),
@@ -237,7 +246,8 @@ RESERVE_BANDS_LIMIT_SOON = (
     ),
 )
 def oxidation_trend(new_value: float, reserve_before: float, reserve_now: float,
-                    interval: float, limit_pct: float, watch_pct: float) -> Result:
+                    interval: float, limit_pct: float, watch_pct: float,
+                    next_sample: float | None = None) -> Result:
     """Straight-line extrapolation of the oxidation reserve to the watch and condemning levels."""
     if watch_pct <= limit_pct:
         raise InputError("watch_pct", "the watch level must be above the condemning limit")
@@ -252,10 +262,16 @@ def oxidation_trend(new_value: float, reserve_before: float, reserve_now: float,
         "hours_to_watch": to_watch,
         "hours_to_limit": to_limit,
     })
-    soon = to_limit is not None and to_limit <= interval
-    result.grade(now_pct, RESERVE_BANDS_LIMIT_SOON if soon else RESERVE_BANDS, COMMON_PRACTICE,
-                 now=Q(now_pct, "percent"), limit=Q(limit_pct, "percent"),
-                 watch=Q(watch_pct, "percent"), to_limit=Q(to_limit, _H))
+    ahead = interval if next_sample is None else next_sample
+    if to_limit is not None and to_limit <= ahead:
+        bands = RESERVE_BANDS_LIMIT_SOON
+    elif to_watch is not None and to_watch <= ahead:
+        bands = RESERVE_BANDS_WATCH_SOON
+    else:
+        bands = RESERVE_BANDS
+    result.grade(now_pct, bands, COMMON_PRACTICE, now=Q(now_pct, "percent"),
+                 limit=Q(limit_pct, "percent"), watch=Q(watch_pct, "percent"),
+                 to_limit=Q(to_limit, _H), to_watch=Q(to_watch, _H), next_sample=Q(ahead, _H))
     if to_limit is None:
         result.note("The reading is not falling between the two samples, so no end date can "
                     "be drawn; check that both were tested the same way.")

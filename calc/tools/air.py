@@ -27,21 +27,31 @@ NO_AIR_BANDS = (
     Band("ok", "With no free air the column is as stiff as the oil itself; its give under the "
                "load is {give_free}."),
 )
-# The loss of stiffness at the working pressure (common practice, from memory); the air's
-# extra give counts as a finding too once it is as large as the oil's own.
-_ACT_LOSS = Band("act", "{air} of air makes the oil {loss} softer at {pressure}: expect spongy, "
-                        "lagging and unsteady motion; find where air gets in (suction leaks, "
-                        "return above the oil level, low level), let the oil de-aerate, and "
-                        "bleed the circuit.", at_least=LOSS_ACT_PCT)
-_WATCH_LOSS = ("{air} of air makes the oil {loss} softer at {pressure} and adds {extra} of give to "
-               "the cylinder (air-free: {give_free}): look for where the air gets in.")
+# The loss of stiffness at the working pressure (common practice, from memory).
 LOSS_BANDS = (
-    _ACT_LOSS,
-    Band("watch", _WATCH_LOSS, at_least=LOSS_WATCH_PCT),
-    Band("ok", "{air} of air makes the oil {loss} softer at {pressure} and adds {extra} of give to "
-               "the cylinder."),
+    Band("act", "{air} of air makes the oil {loss} softer at {pressure}: expect spongy, lagging "
+                "and unsteady motion; find where air gets in (suction leaks, return above the oil "
+                "level, low level), let the oil de-aerate, and bleed the circuit.",
+         at_least=LOSS_ACT_PCT),
+    Band("watch", "{air} of air makes the oil {loss} softer at {pressure}: look for where the air "
+                  "gets in.", at_least=LOSS_WATCH_PCT),
+    Band("ok", "{air} of air makes the oil only {loss} softer at {pressure}."),
 )
-LOSS_BANDS_MUCH_GIVE = (_ACT_LOSS, Band("watch", _WATCH_LOSS))
+# The cylinder's extra give from the air, as a share of its stroke (common practice, from
+# memory): a positioning or holding job notices a few tenths of a per cent.
+GIVE_WATCH_PCT = 1.0
+GIVE_ACT_PCT = 5.0
+GIVE_BANDS = (
+    Band("act", "The air adds {extra} of give to the cylinder ({share} of its stroke; air-free "
+                "oil gives {give_free}): loads sag and stop positions drift; find where the air "
+                "gets in and bleed the circuit before any precise or holding work.",
+         at_least=GIVE_ACT_PCT),
+    Band("watch", "The air adds {extra} of give to the cylinder ({share} of its stroke; air-free "
+                  "oil gives {give_free}): positions wander as the load changes.",
+         at_least=GIVE_WATCH_PCT),
+    Band("ok", "The air adds {extra} of give to the cylinder ({share} of its stroke), little "
+               "against the stroke."),
+)
 
 
 @tool(
@@ -113,8 +123,9 @@ def air_stiffness(air: float, pressure: float, process: str, k_oil: float, atmos
     if x0 == 0.0:
         result.grade(loss, NO_AIR_BANDS, COMMON_PRACTICE, **named)
     else:
-        result.grade(loss, LOSS_BANDS_MUCH_GIVE if extra >= give_free else LOSS_BANDS,
-                     COMMON_PRACTICE, **named)
+        share = 100.0 * extra / stroke
+        result.grade(loss, LOSS_BANDS, COMMON_PRACTICE, **named)
+        result.grade(share, GIVE_BANDS, COMMON_PRACTICE, share=Q(share, _PCT), **named)
     if p_load > pressure:
         result.note("The load needs {0}, more than the working pressure {1}: the cylinder "
                     "cannot hold or lift it.", Q(p_load, _P), Q(pressure, _P))

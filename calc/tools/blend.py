@@ -5,11 +5,12 @@ against the ISO 3448 grade band.
 from __future__ import annotations
 
 from ..kernel.errors import InputError
-from ..kernel.grading import Band
+from ..kernel.grading import Band, as_stated
 from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 from ..methods.blend import (blend_viscosity, blending_number, drain_and_fill, top_up_fraction,
                              top_up_volume)
+from ..methods.iso3448 import GRADE_CHOICES, grade_containing, grade_limits
 
 _KV = "kinematic_viscosity"
 _PCT = "percent"
@@ -28,18 +29,56 @@ SMALL_CHANGE = 0.05
 MIXED_OIL_SHARE = 0.10
 ISO_3448_BASIS = "ISO 3448 (grade tolerance ±10 % of mid-point)"
 
-# The mix against the main oil, by the fraction its viscosity moved.
-MIX_BANDS = (
-    Band("ok", "The mix is {mix}, within {change} of the main oil ({main}): the grade is "
-               "unchanged; log what was added and when.", at_most=SMALL_CHANGE,
-         basis=COMMON_PRACTICE),
-    Band("watch", "The mix is {mix}, {change} off the main oil ({main}): near the edge of the "
-                  "±10 % a grade allows; check the pump's viscosity window at the working "
-                  "temperature.", at_most=ISO_3448_TOLERANCE),
-    Band("act", "The mix is {mix}, {change} off the main oil ({main}): it is no longer that "
-                "grade; label the tank as mixed oil, check the pump's viscosity window, and plan "
-                "a drain and refill if the machine needs the original grade."),
+# The mix against the ISO 3448 band of the grade that should be in the tank (graded on the
+# mix's KV40 rounded as the grade's limits are written), and, inside it, against the main
+# oil it was made from (common practice: within 5 % goes unnoticed).
+MIX_GRADE_BANDS = (
+    Band("act", "The mix is {mix}, above {grade} ({low} to {high}): the tank no longer holds that "
+                "grade; label it as mixed oil, check the pump's viscosity window, and plan a "
+                "drain and refill if the machine needs {grade}.", over="high"),
+    Band("act", "The mix is {mix}, below {grade} ({low} to {high}): the tank no longer holds that "
+                "grade; label it as mixed oil, check the pump's viscosity window, and plan a "
+                "drain and refill if the machine needs {grade}.", under="low"),
 )
+MIX_CHANGE_BANDS = (
+    Band("ok", "The mix is {mix}, within {change} of the main oil ({main}) and inside {grade}: "
+               "log what was added and when.", at_most=SMALL_CHANGE, basis=COMMON_PRACTICE),
+    Band("watch", "The mix is {mix}, {change} off the main oil ({main}), still inside {grade} "
+                  "({low} to {high}): check the pump's viscosity window at the working "
+                  "temperature.", basis=COMMON_PRACTICE),
+)
+# With no grade to hold to, the change from the main oil against the ±10 % a grade spans.
+MIX_BANDS = (
+    Band("ok", "The mix is {mix}, within {change} of the main oil ({main}): log what was added "
+               "and when.", at_most=SMALL_CHANGE, basis=COMMON_PRACTICE),
+    Band("watch", "The mix is {mix}, {change} off the main oil ({main}): near the ±10 % an ISO "
+                  "grade spans; check the pump's viscosity window at the working temperature.",
+         at_most=ISO_3448_TOLERANCE),
+    Band("act", "The mix is {mix}, {change} off the main oil ({main}): more than an ISO grade "
+                "spans; label the tank as mixed oil, check the pump's viscosity window, and plan "
+                "a drain and refill if the machine needs the original oil."),
+)
+# A top-up's target against the grade that should be in the tank.
+TARGET_GRADE_BANDS = (
+    Band("watch", "The target {target} lies outside {grade} ({low} to {high}): the tank would no "
+                  "longer hold that grade.", over="high"),
+    Band("watch", "The target {target} lies outside {grade} ({low} to {high}): the tank would no "
+                  "longer hold that grade.", under="low"),
+)
+MAIN_GRADE = "main"
+EXPECTED_CHOICES = ((MAIN_GRADE, "The main oil's grade"),) + GRADE_CHOICES
+
+
+def expected_grade(choice: str, kv_main: float) -> str | None:
+    """The grade the tank should hold: the one chosen, or the one the main oil is inside."""
+    return grade_containing(kv_main) if choice == MAIN_GRADE else choice
+
+
+def _grade_named(grade: str) -> dict:
+    low, high = grade_limits(grade)
+    return {"grade": Q(grade, "text"), "low": Q(low, _KV), "high": Q(high, _KV)}
+
+
 # A top-up by the share of oil B in the tank afterwards (common practice).
 SHARE_BANDS = (
     Band("watch", "Oil B will be {share} of the tank: it is now a mixed oil; label the tank, log "
@@ -92,7 +131,8 @@ def _mix_parts(kvs: list[float | None], amounts: list[float | None]) -> tuple[li
     return used_kv, used_amount
 
 
-def _mix(result: Result, kvs: list[float | None], amounts: list[float | None], basis: str) -> None:
+def _mix(result: Result, kvs: list[float | None], amounts: list[float | None], basis: str,
+         grade_choice: str) -> None:
     used_kv, used_amount = _mix_parts(kvs, amounts)
     kv_mix = blend_viscosity(used_kv, used_amount)
     total = sum(used_amount)
@@ -101,8 +141,19 @@ def _mix(result: Result, kvs: list[float | None], amounts: list[float | None], b
     result.values.update(kv_mix=kv_mix, vbn=blending_number(kv_mix),
                          share_other=100.0 * (1.0 - used_amount[main] / total))
     change = kv_mix / kv_main - 1.0
-    result.grade(abs(change), MIX_BANDS, ISO_3448_BASIS, mix=Q(kv_mix, _KV), main=Q(kv_main, _KV),
-                 change=Q(100.0 * abs(change), _PCT))
+    named = dict(mix=Q(kv_mix, _KV), main=Q(kv_main, _KV), change=Q(100.0 * abs(change), _PCT))
+    grade = expected_grade(grade_choice, kv_main)
+    if grade is None:
+        result.grade(abs(change), MIX_BANDS, ISO_3448_BASIS, **named)
+        result.note("The main oil ({main}) is in no ISO 3448 grade band, so the mix is judged by "
+                    "its change from it.", **named)
+    else:
+        named.update(_grade_named(grade))
+        low = grade_limits(grade)[0]
+        if not result.grade(as_stated(kv_mix, low), MIX_GRADE_BANDS, ISO_3448_BASIS, **named):
+            result.grade(abs(change), MIX_CHANGE_BANDS, ISO_3448_BASIS, **named)
+        result.note("The grade check reads the viscosities as KV40 (cSt at {temp}), as ISO "
+                    "3448 defines its grades.", temp=Q(40.0, "temperature"))
     if basis == "volume":
         result.note("Amounts by volume: the blending numbers are defined on mass fractions; for "
                     "mineral oils of similar density the difference is small. Use mass for oils "
@@ -110,7 +161,7 @@ def _mix(result: Result, kvs: list[float | None], amounts: list[float | None], b
 
 
 def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: float,
-            capacity_l: float | None) -> None:
+            capacity_l: float | None, grade_choice: str) -> None:
     if kv_a == kv_b:
         raise InputError("kv2", "oil B has the same viscosity as oil A: adding it cannot change "
                                 "the viscosity")
@@ -135,6 +186,11 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
                     "loads, discharge accumulators); oil may be hot. Contain spills and dispose of "
                     "used oil as local rules require.")
     result.grade(fraction_b, SHARE_BANDS, COMMON_PRACTICE, share=Q(100.0 * fraction_b, _PCT))
+    grade = expected_grade(grade_choice, kv_a)
+    if grade is not None:
+        low = grade_limits(grade)[0]
+        result.grade(as_stated(target, low), TARGET_GRADE_BANDS, ISO_3448_BASIS,
+                     target=Q(target, _KV), **_grade_named(grade))
     result.note("Top-up by volume: the blending numbers are defined on mass fractions; for mineral "
                 "oils of similar density the difference is small.")
 
@@ -153,6 +209,10 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
         _kv_field(4, None), _amount_field(4, None),
         Field("basis", "Amounts are", "choice", "volume", choices=BASIS_CHOICES,
               help="Mix only."),
+        Field("grade", "Grade that should be in the tank", "choice", MAIN_GRADE,
+              choices=EXPECTED_CHOICES, group="machine",
+              help="The result is judged against this grade's ISO 3448 band; by default the "
+                   "grade the main oil (oil A for a top-up) is in."),
         Field("tank_l", "Oil A in the tank now", _VOL, 200.0, min=0.1, max=1.0e6,
               help="Top-up only."),
         Field("capacity_l", "Tank capacity", _VOL, None, min=0.1, max=1.0e6, optional=True,
@@ -172,16 +232,16 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
     ),
 )
 def viscosity_blend(mode: str, kv1: float, amount1: float, kv2: float, amount2: float,
-                    basis: str, tank_l: float, target: float,
+                    basis: str, grade: str, tank_l: float, target: float,
                     kv3: float | None = None, amount3: float | None = None,
                     kv4: float | None = None, amount4: float | None = None,
                     capacity_l: float | None = None) -> Result:
     """Mix result or top-up volume by the Refutas blending numbers (ASTM D7152 practice)."""
     result = Result(values={})
     if mode == "mix":
-        _mix(result, [kv1, kv2, kv3, kv4], [amount1, amount2, amount3, amount4], basis)
+        _mix(result, [kv1, kv2, kv3, kv4], [amount1, amount2, amount3, amount4], basis, grade)
     else:
-        _top_up(result, kv1, kv2, target, tank_l, capacity_l)
+        _top_up(result, kv1, kv2, target, tank_l, capacity_l, grade)
     result.note("All viscosities must be at the same temperature (usually {0}); the result is "
                 "at that temperature.", Q(40.0, "temperature"))
     result.note("Oils of different makes or types (zinc and zinc-free antiwear, mineral and "

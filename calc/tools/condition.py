@@ -25,6 +25,7 @@ from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Result
 from ..methods.cleanliness import worst_excess
 from ..methods.condition import acid_number_rise, viscosity_change_pct
 from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields
+from .water import OIL_CHOICES, OWN_CALIBRATION, saturation_line
 
 _KV, _PCT, _AN, _PPM = "kinematic_viscosity", "percent", "acid_number", "ppm"
 
@@ -71,6 +72,21 @@ WATER_BANDS = (
                   "drain free water from the tank bottom.", at_least="watch"),
     Band("ok", "Water {value} is below the watch limit {watch}."),
 )
+# Water against what the oil holds dissolved at its temperature (common practice, as the
+# water-in-oil tool reads it): above saturation there is free water, above half of it free
+# water drops out as the oil cools.
+SATURATION_BANDS = (
+    Band("act", "Water {value} is {share} of what this oil holds dissolved at {temp}: there is "
+                "free water; drain the tank bottom, find the way in and dry the oil.",
+         at_least=100.0),
+    Band("watch", "Water {value} is {share} of what this oil holds dissolved at {temp}: free "
+                  "water drops out as it cools; check breathers, coolers and seals.",
+         at_least=50.0),
+    Band("ok", "Water {value} is only {share} of what this oil holds dissolved at {temp}."),
+)
+UNKNOWN_OIL = "unknown"
+OIL_TYPE_CHOICES = ((UNKNOWN_OIL, "Not known"),) + tuple(
+    c for c in OIL_CHOICES if c[0] != OWN_CALIBRATION)
 RESERVE_BANDS = (
     Band("act", "Oxidation reserve {value} of new (act at {act}): the antioxidant is nearly "
                 "spent; plan the oil change and flush if there is varnish.", at_most="act",
@@ -98,6 +114,11 @@ def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
         Field("an_new", "Acid number of the new oil", _AN, None, min=0.0, max=20.0, optional=True),
         Field("an_now", "Acid number now", _AN, None, min=0.0, max=50.0, optional=True),
         Field("ppm", "Water", _PPM, None, min=0.0, max=1.0e6, optional=True),
+        Field("temp", "Oil temperature at sampling", "temperature", None, min=-40.0, max=150.0,
+              optional=True, help="With the oil type, the water is read against saturation."),
+        Field("oil", "Oil type", "choice", UNKNOWN_OIL, choices=OIL_TYPE_CHOICES,
+              group="machine", help="Sets how much water the oil holds dissolved (the "
+                                    "water-in-oil tool's presets, from memory)."),
         *scale_fields("code", "ISO 4406 code now", "Blank for a size not reported ('-')."),
         *scale_fields("target", "ISO 4406 target", "From the iso-4406 tool or the machine "
                       "maker."),
@@ -121,12 +142,15 @@ def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
         Output("level", "Overall verdict", "text", headline=True),
         Output("visc_change", "Viscosity change", _PCT, tracks="kv40_change"),
         Output("an_rise", "Acid number rise", _AN, tracks="acid_rise"),
+        Output("water_saturation", "Water, % of saturation at the oil's temperature", _PCT,
+               tracks="water_saturation"),
         Output("excess", "Cleanliness: codes over target", "text"),
         Output("findings", "Findings over a limit", "text", headline=True),
     ),
 )
 def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                   an_now: float | None = None, ppm: float | None = None,
+                  temp: float | None = None, oil: str = UNKNOWN_OIL,
                   code4: float | None = None, code6: float | None = None,
                   code14: float | None = None, target4: float | None = None,
                   target6: float | None = None, target14: float | None = None,
@@ -154,6 +178,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                          "tool gives typical targets)")
 
     result = Result(values={"level": "ok", "visc_change": None, "an_rise": None,
+                            "water_saturation": None,
                             "excess": None, "findings": "0"})
     change = viscosity_change_pct(kv40, kv40_new)
     result.values["visc_change"] = change
@@ -167,6 +192,14 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
     if ppm is not None:
         result.grade(ppm, WATER_BANDS, COMMON_PRACTICE,
                      **_limits(_PPM, ppm, water_watch, water_act))
+        if temp is not None and oil != UNKNOWN_OIL:
+            share = 100.0 * ppm / saturation_line(oil).saturation(temp)
+            result.values["water_saturation"] = share
+            result.grade(share, SATURATION_BANDS, COMMON_PRACTICE, value=Q(ppm, _PPM),
+                         share=Q(share, _PCT), temp=Q(temp, "temperature"))
+        else:
+            result.note("Give the oil's temperature at sampling and its type to read the water "
+                        "against saturation too, as the water-in-oil tool does.")
     if has_code:
         result.values["excess"] = excess_text(worst_excess(code, target))
         add_cleanliness_verdict(result, code, target)

@@ -132,69 +132,116 @@ def foam_patterns(sequences, air_release_min: float | None, limits: FoamLimits,
     return tuple(found)
 
 
-# Each sequence against the grade's limits: foam that stays is a contaminant, tall foam that
-# breaks a lost antifoam; the limits themselves are the grade's (LIMITS_BASIS) or the oil's own.
+# An oil in service is not held to the new-oil figure: above it is a watch, and action comes
+# only at a margin beyond it (common practice for oils in service, from memory; turbine-oil
+# practice as in ASTM D4378 acts at a foam tendency of 450 mL or stability of 10 mL, and at
+# an air release about twice the new-oil limit).
+IN_SERVICE_TENDENCY_ML = 450.0
+IN_SERVICE_STABILITY_ML = 10.0
+IN_SERVICE_AIR_RELEASE_FACTOR = 2.0
+IN_SERVICE_BASIS = "in-service margin over the new-oil limit, common practice, from memory"
+
+
+class ActLimits(NamedTuple):
+    """Where an oil in service wants action, from its new-oil limits."""
+
+    tendency_24: float
+    tendency_93: float
+    stability: float
+    air_release_min: float
+
+
+def in_service_limits(new: FoamLimits) -> ActLimits:
+    """The action limits of an oil in service above its new-oil limits (common practice).
+
+    >>> in_service_limits(grade_limits("VG 68")).air_release_min
+    26.0
+    """
+    return ActLimits(max(IN_SERVICE_TENDENCY_ML, new.tendency_24),
+                     max(IN_SERVICE_TENDENCY_ML, new.tendency_93),
+                     max(IN_SERVICE_STABILITY_ML, new.stability),
+                     IN_SERVICE_AIR_RELEASE_FACTOR * new.air_release_min)
+
+
+# Each sequence against its limits: foam that stays points to a contaminant, tall foam that
+# breaks to a lost antifoam. Above the new-oil limit is a watch (on that limit's basis), past
+# the in-service margin it is act.
 STABILITY_BANDS = (
-    Band("act", "Sequence {sequence}: {stability} of foam still standing after settling, "
-                "against {limit} allowed: the foam does not break, look for a contaminant.",
+    Band("act", "Sequence {sequence}: {stability} of foam still standing after settling, past "
+                "the {act} where an oil in service wants action: the foam does not break, find "
+                "the contaminant.", over="act", basis=IN_SERVICE_BASIS),
+    Band("watch", "Sequence {sequence}: {stability} of foam still standing after settling, above "
+                  "the {limit} of a new oil: resample, and look for a contaminant.",
          over="limit"),
 )
 TENDENCY_BANDS = (
-    Band("watch", "Sequence {sequence}: foam tendency {tendency}, above the {limit} allowed.",
-         over="limit"),
+    Band("act", "Sequence {sequence}: foam tendency {tendency}, past the {act} where an oil in "
+                "service wants action.", over="act", basis=IN_SERVICE_BASIS),
+    Band("watch", "Sequence {sequence}: foam tendency {tendency}, above the {limit} of a new "
+                  "oil.", over="limit"),
 )
 SEQUENCE_OK_BANDS = (
     Band("ok", "Sequence {sequence}: foam within the grade's limits.", at_most=0.0),
 )
 AIR_RELEASE_BANDS = (
-    Band("act", "Air release {air_release} against {limit} allowed for {grade}: air stays in the "
-                "oil and makes controls spongy and pumps noisy.", over="limit"),
+    Band("act", "Air release {air_release}, past the {act} (twice the new-oil {limit} for "
+                "{grade}) where an oil in service wants action: air stays in the oil and makes "
+                "controls spongy and pumps noisy.", over="act", basis=IN_SERVICE_BASIS),
+    Band("watch", "Air release {air_release}, above the {limit} of a new {grade} oil but short "
+                  "of the {act} where an oil in service wants action: resample and trend it.",
+         over="limit"),
     Band("ok", "Air release {air_release}, within the {limit} allowed for {grade}."),
 )
-# What to do about what the readings point to (common practice), worst first.
-ADVICE = {
-    "contamination": ("act", "Find what got into the oil (grease, engine oil, cleaner, water); "
-                             "correct the cause, then drain, flush and refill, do not just top "
-                             "up."),
-    "antifoam-lost": ("watch", "Check what was topped up and whether very fine filtration or "
-                               "ageing took the antifoam out; ask the oil supplier before dosing "
-                               "any additive."),
-    "antifoam-overdose": ("act", "Good foam numbers with a long air release is typical of too "
-                                 "much antifoam: do not add more; ask the oil supplier, partial "
-                                 "oil change."),
-    "slow-air-release": ("act", "The oil holds air: check for contamination, ageing and mixed "
-                                "oils with a full lab analysis."),
-    "mechanical": ("watch", "The oil passes its tests, so the air comes from the machine: check "
-                            "the suction side for leaks, the return line ends below the lowest "
-                            "oil level, and the tank's dwell time."),
+# What the readings point to: the two that are findings in their own right are verdicts;
+# the others explain readings already graded above.
+PATTERN_VERDICTS = {
+    "antifoam-lost": "Check what was topped up and whether very fine filtration or ageing took "
+                     "the antifoam out; ask the oil supplier before dosing any additive.",
+    "mechanical": "The oil passes its tests, so the air comes from the machine: check the "
+                  "suction side for leaks, the return line ends below the lowest oil level, and "
+                  "the tank's dwell time.",
+}
+PATTERN_NOTES = {
+    "contamination": "Foam that does not break points to something in the oil (grease, engine "
+                     "oil, cleaner, water): correct the cause, then drain, flush and refill, do "
+                     "not just top up.",
+    "antifoam-overdose": "Good foam numbers with a long air release is typical of too much "
+                         "antifoam: do not add more; ask the oil supplier about a partial oil "
+                         "change.",
+    "slow-air-release": "The oil holds air: check for contamination, ageing and mixed oils with "
+                        "a full lab analysis.",
 }
 
 
-def _grade_sequences(result: Result, sequences, limits: FoamLimits, basis: str) -> None:
+def _grade_sequences(result: Result, sequences, limits: FoamLimits, act: ActLimits,
+                     basis: str) -> None:
     for name, tendency, stability, t_limit in sequences:
         sequence = Q(name, "text")
+        t_act = act.tendency_93 if name == "II" else act.tendency_24
         excess = []
         if stability is not None:
             result.grade(stability, STABILITY_BANDS, basis, sequence=sequence,
-                         stability=Q(stability, _ML), limit=Q(limits.stability, _ML))
+                         stability=Q(stability, _ML), limit=Q(limits.stability, _ML),
+                         act=Q(act.stability, _ML))
             excess.append(stability - limits.stability)
         if tendency is not None:
             result.grade(tendency, TENDENCY_BANDS, basis, sequence=sequence,
-                         tendency=Q(tendency, _ML), limit=Q(t_limit, _ML))
+                         tendency=Q(tendency, _ML), limit=Q(t_limit, _ML), act=Q(t_act, _ML))
             excess.append(tendency - t_limit)
         result.grade(max(excess), SEQUENCE_OK_BANDS, basis, sequence=sequence)
 
 
 def _grade_patterns(result: Result, patterns, air_release_min, limits: FoamLimits,
-                    grade: str, basis: str) -> None:
+                    act: ActLimits, grade: str, basis: str) -> None:
     if air_release_min is not None:
         result.grade(air_release_min, AIR_RELEASE_BANDS, basis,
                      air_release=Q(air_release_min, _MIN), limit=Q(limits.air_release_min, _MIN),
-                     grade=Q(grade, "text"))
+                     act=Q(act.air_release_min, _MIN), grade=Q(grade, "text"))
     for key in patterns:
-        if key in ADVICE:
-            level, says = ADVICE[key]
-            result.add(level, COMMON_PRACTICE, says)
+        if key in PATTERN_VERDICTS:
+            result.add("watch", COMMON_PRACTICE, PATTERN_VERDICTS[key])
+        elif key in PATTERN_NOTES:
+            result.note(PATTERN_NOTES[key])
 
 
 def _foam_field(key: str, label: str) -> Field:
@@ -232,7 +279,8 @@ def _limit_field(key: str, label: str, quantity: str, high: float) -> Field:
     ),
     outputs=(
         Output("points_to", "What the readings point to", "text", headline=True),
-        Output("air_release_limit", "Air release allowed", _MIN),
+        Output("air_release_limit", "Air release allowed, new oil", _MIN),
+        Output("air_release_act", "Air release where an oil in service wants action", _MIN),
         Output("air_release_ratio", "Air release against its limit", "ratio",
                "Above 1 the oil is slower to let go of air than its grade allows."),
         Output("tendency_limit_24", "Foam tendency allowed, I and III", _ML),
@@ -269,8 +317,10 @@ def foam_air_tests(grade: str, air_release: float | None = None,
         "stability_limit": limits.stability,
         "limits_basis": basis,
     })
-    _grade_sequences(result, sequences, limits, basis)
-    _grade_patterns(result, patterns, air_release, limits, grade, basis)
+    act = in_service_limits(limits)
+    result.values["air_release_act"] = act.air_release_min
+    _grade_sequences(result, sequences, limits, act, basis)
+    _grade_patterns(result, patterns, air_release, limits, act, grade, basis)
     if not patterns:
         result.note(f"Enter the lab's foam and air-release results to read them against the "
                     f"limits shown for {grade}.")
@@ -282,6 +332,8 @@ def foam_air_tests(grade: str, air_release: float | None = None,
                 "never open a line under pressure, and dispose of used oil by local rules.")
     result.sources += ["ASTM D892 / ISO 6247 foam test (sequences I, II, III)",
                        "ISO 9120 / ASTM D3427 air release at 50 °C",
-                       "Limits: ISO 11158 HM / DIN 51524-2 HLP, from memory",
+                       "New-oil limits: ISO 11158 HM / DIN 51524-2 HLP, from memory",
+                       "In-service action margins: common practice (turbine-oil practice as in "
+                       "ASTM D4378), from memory",
                        "Reading of patterns: common practice"]
     return result

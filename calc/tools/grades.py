@@ -17,7 +17,7 @@ from __future__ import annotations
 import math
 
 from ..kernel.errors import InputError
-from ..kernel.grading import Band
+from ..kernel.grading import Band, as_stated
 from ..methods.iso3448 import (GRADE_CHOICES, ISO_VG_GRADES, grade_containing, grade_limits,
                       grade_midpoint, nearest_grade, neighbours)
 from ..kernel.registry import VISCOSITY, Field, Output, tool
@@ -35,13 +35,14 @@ _PCT = "percent"
 WRONG_OIL_PERCENT = 10.0
 _CHECK_FIRST = (" Check the top-up records, take a fresh sample from the same point, and send it "
                 "to the lab before draining or changing anything.")
+# Graded on the KV40 rounded as the grade's limits are written (ISO 3448, ASTM E29).
 WRONG_OIL_BANDS = (
     Band("act", "At {kv40} the oil is {off} above the mid-point of {grade}: a heavier oil may "
                 "have been topped up, or the oil has thickened (oxidation, water, sludge)."
-                + _CHECK_FIRST, over=WRONG_OIL_PERCENT),
+                + _CHECK_FIRST, over="high"),
     Band("act", "At {kv40} the oil is {off} below the mid-point of {grade}: a lighter oil may "
                 "have been topped up, or the oil has thinned (solvent or fuel dilution, shear of "
-                "the VI improver)." + _CHECK_FIRST, under=-WRONG_OIL_PERCENT),
+                "the VI improver)." + _CHECK_FIRST, under="low"),
     Band("ok", "At {kv40} the oil is within 10 % of the mid-point of {grade} ({low} to {high}): "
                "consistent with the right oil."),
 )
@@ -92,9 +93,13 @@ def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
                             "band": band, "off_expected": off_expected})
     if off_expected is not None:
         low, high = grade_limits(grade)
-        result.grade(off_expected, WRONG_OIL_BANDS, COMMON_PRACTICE, kv40=Q(kv40, _KV),
+        result.grade(as_stated(kv40, low), WRONG_OIL_BANDS, COMMON_PRACTICE, kv40=Q(kv40, _KV),
                      off=Q(abs(off_expected), _PCT), grade=Q(grade, "text"),
                      low=Q(low, _KV), high=Q(high, _KV))
+    if kv100 is None:
+        result.note("D2270 gives no KV100 for an oil this thin at VI {vi} (it would be below {two} "
+                    "at {hundred}); a reading at {forty} needs none to be graded.",
+                    vi=Q(vi, "vi"), two=Q(2.0, _KV), hundred=Q(100.0, _T), forty=Q(40.0, _T))
     if not inside:
         result.note("The reading is in none of the ISO 3448 bands: a mix of two grades, an oil "
                     "that has thickened or thinned in service, or an oil not sold by ISO grade.")

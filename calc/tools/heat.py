@@ -13,7 +13,7 @@ from ..kernel.grading import Band
 from ..kernel.registry import TANK, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, Q, Result
 from ..methods.convection import radiation_coefficient
-from ..methods.heat import (STEADY_CAP_C, STEEL_DENSITY_KG_PER_M3, heat_capacity_kj_per_k,
+from ..methods.heat import (STEEL_DENSITY_KG_PER_M3, heat_capacity_kj_per_k,
                             heat_load_from_power_kw, heat_load_from_throttle_kw, shed_kw,
                             steady_temperature_c, tank_shell_area_m2, tank_surfaces,
                             time_to_temperature_min)
@@ -24,18 +24,31 @@ from .tank import check_level, shape_fields
 BURN_C = 60.0
 # Above about this mineral oil ages fast (from memory).
 FAST_AGEING_C = 70.0
+# Above about this nitrile seals harden and mineral hydraulic oil breaks down: no machine
+# should run there (common practice, from memory; fluoroelastomer seals take more, the oil
+# does not). Mineral hydraulic oils flash from about 200 degC (from memory).
+NOT_REACHABLE_C = 100.0
+FLASH_POINT_C = 200.0
+# Above about this the oil runs too hot to leave it so: act (common practice, from memory;
+# the same line as the overheating checklist's).
+HOT_OIL_ACT_C = 80.0
 
-# No steady state below STEADY_CAP_C: the tank alone cannot carry the load.
+# No steady state in reach: the tank alone cannot carry the load.
 NO_STEADY_BANDS = (
-    Band("act", "The tank alone cannot shed {load} at any sensible oil temperature: a cooler of "
-                "at least {cooler} is needed; do not run without it."),
+    Band("act", "The tank alone cannot shed {load} at any temperature the oil and seals survive "
+                "(it would pass {limit}, and the oil's flash point of about {flash}, long "
+                "before it settled): this circuit must not run like this; it needs a cooler of at least "
+                "{cooler}, or less heat (a lower relief setting, an unloading circuit)."),
 )
-# The cooler the target needs, against the load (common practice).
-_COOLER_NEEDED = ("The tank alone would settle at {steady}, above the target {target}: a cooler "
-                  "of at least {cooler} (plus margin) is needed; do not run without it.")
+# Where the tank alone would settle, against the target and the hot-oil line (common
+# practice): a few kelvin over the target is a cooler to plan, hot oil is a cooler to fit.
 COOLER_BANDS = (
-    Band("act", _COOLER_NEEDED, over="tenth_load"),
-    Band("watch", _COOLER_NEEDED, over=0.0),
+    Band("act", "The tank alone would settle at {steady}, above {hot}, where the oil ages fast "
+                "and seals suffer: a cooler of at least {cooler} (plus margin) is needed; do not "
+                "run without it.", over="hot"),
+    Band("watch", "The tank alone would settle at {steady}, above the target {target}: a cooler "
+                  "of at least {cooler}, more air over the tank or a little less heat keeps it at "
+                  "the target.", over="target"),
     Band("ok", "The tank alone settles at {steady}, at or below the target {target}: no cooler "
                "is needed at this load and air temperature."),
 )
@@ -63,9 +76,10 @@ def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_
                  start_c: float, steady_c: float | None, target_c: float,
                  system: str = "metric") -> str:
     """SVG of the oil temperature against time for the tank alone, with the target and the
-    skin-burn line; the curve runs to 95 % of the way to steady (or to 150 degC).
+    skin-burn line; the curve runs to 95 % of the way to steady (or, with no steady state in
+    reach, to NOT_REACHABLE_C, which the caller makes sure lies above the start).
     Temperatures are labelled in `system` units, ticks round in the shown unit."""
-    end_c = 150.0 if steady_c is None else start_c + 0.95 * (steady_c - start_c)
+    end_c = NOT_REACHABLE_C if steady_c is None else start_c + 0.95 * (steady_c - start_c)
     temps = [start_c + (end_c - start_c) * k / 40 for k in range(41)]
     hours = [0.0] + [time_to_temperature_min(load_kw, loss_kw, capacity_kj_per_k, start_c, t,
                                              steady_c, steps=16) / 60.0 for t in temps[1:]]
@@ -98,7 +112,7 @@ def warmup_chart(load_kw: float, loss_kw: Callable[[float], float], capacity_kj_
                             anchor=anchor)]
     body.append(chart.polyline([ax.point(h, t) for h, t in zip(hours, temps)], "oil-line",
                                "#12357a", 4.0))
-    steady_text = (f"no steady state below {show(STEADY_CAP_C)}" if steady_c is None
+    steady_text = (f"no steady state below {show(NOT_REACHABLE_C)}" if steady_c is None
                    else f"steady {show(steady_c)}")
     title = f"Oil temperature of the tank alone from {show(start_c)}: {steady_text}"
     desc = ("Oil temperature against hours from start, with the target as a dashed line, the "
@@ -170,7 +184,8 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
             else heat_load_from_throttle_kw(flow, dp))
     faces = tank_surfaces(shape, length, width, height, diameter, level, surfaces)
     loss = lambda t: shed_kw(faces, emissivity, t, ambient)  # noqa: E731
-    steady = steady_temperature_c(load, loss, ambient)
+    # A steady state past what oil and seals survive is no state the machine can reach.
+    steady = steady_temperature_c(load, loss, ambient, cap_c=NOT_REACHABLE_C)
     oil = volume_at_level_l(shape, length, width, height, diameter, level)
     steel_kg = (tank_shell_area_m2(shape, length, width, height, diameter) * wall * 1e-3
                 * STEEL_DENSITY_KG_PER_M3)
@@ -190,7 +205,7 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
         "time_to_90": None if steady is None else time_to_temperature_min(
             load, loss, capacity, start_c, start_c + 0.9 * (steady - start_c), steady),
     })
-    if steady is None or abs(steady - start_c) > 0.5:
+    if (start_c < NOT_REACHABLE_C) if steady is None else abs(steady - start_c) > 0.5:
         result.charts["warmup"] = partial(warmup_chart, load, loss, capacity, start_c, steady,
                                           target)
     _verdicts(result, load, steady, target, cooler)
@@ -216,10 +231,11 @@ def _verdicts(result: Result, load: float, steady: float | None, target: float,
               cooler: float) -> None:
     named = dict(load=Q(load, _KW), cooler=Q(cooler, _KW), target=Q(target, _T))
     if steady is None:
-        result.grade(load, NO_STEADY_BANDS, COMMON_PRACTICE, **named)
+        result.grade(load, NO_STEADY_BANDS, COMMON_PRACTICE, limit=Q(NOT_REACHABLE_C, _T),
+                     flash=Q(FLASH_POINT_C, _T), **named)
     else:
-        result.grade(cooler, COOLER_BANDS, COMMON_PRACTICE, steady=Q(steady, _T),
-                     tenth_load=Q(0.1 * load, _KW), **named)
+        result.grade(steady, COOLER_BANDS, COMMON_PRACTICE, steady=Q(steady, _T),
+                     hot=Q(HOT_OIL_ACT_C, _T), **named)
     running = target if steady is None else min(steady, target)
     result.grade(running, RUNNING_BANDS, running=Q(running, _T), burn=Q(BURN_C, _T))
     result.grade(running, AGEING_BANDS, fast=Q(FAST_AGEING_C, _T))

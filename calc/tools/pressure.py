@@ -64,21 +64,23 @@ def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> flo
     inputs=(
         Field("kv", "Viscosity at atmospheric pressure", _KV, 46.0, min=0.5, max=1.0e5,
               help="At the working temperature."),
-        Field("pressure", "Pressure", _P, 350.0, min=0.0, max=PRESSURE_MAX_BAR,
+        Field("pressure", "Pressure", _P, 250.0, min=0.0, max=PRESSURE_MAX_BAR,
               help="Gauge pressure, above atmospheric."),
         Field("alpha_from", "Pressure-viscosity coefficient", "choice", "entered",
               choices=(("entered", "Entered below"), ("fitted", "Fitted from two readings"))),
         Field("alpha", "Coefficient", _ALPHA, 2.0e-3, min=ALPHA_MIN_PER_BAR,
               max=ALPHA_MAX_PER_BAR, help="From the oil's data sheet; mineral oils are typically "
                                           "0.0015 to 0.0025 1/bar (15 to 25 1/GPa)."),
-        Field("p1", "Pressure of reading 1", _P, 350.0 * 1.01325, min=0.0, max=PRESSURE_MAX_BAR,
+        # The two readings' defaults are an invented example (12.0 s at 100 bar, 23.5 s at
+        # 400 bar: 2.24e-3 1/bar), not the data of any test.
+        Field("p1", "Pressure of reading 1", _P, 100.0, min=0.0, max=PRESSURE_MAX_BAR,
               help="Fitted only."),
-        Field("reading1", "Reading 1", "ratio", 8.0, min=1.0e-6, max=1.0e9,
+        Field("reading1", "Reading 1", "ratio", 12.0, min=1.0e-6, max=1.0e9,
               help="Fitted only: a viscosity, a falling-ball time or a flow time; both readings "
                    "in the same unit."),
-        Field("p2", "Pressure of reading 2", _P, 700.0 * 1.01325, min=0.0, max=PRESSURE_MAX_BAR,
+        Field("p2", "Pressure of reading 2", _P, 400.0, min=0.0, max=PRESSURE_MAX_BAR,
               help="Fitted only."),
-        Field("reading2", "Reading 2", "ratio", 14.0, min=1.0e-6, max=1.0e9, help="Fitted only."),
+        Field("reading2", "Reading 2", "ratio", 23.5, min=1.0e-6, max=1.0e9, help="Fitted only."),
     ),
     outputs=(
         Output("kv_p", "Viscosity at pressure", _KV,

@@ -45,6 +45,15 @@ _V = "volume"
 _MM = "length"
 _PCT = "percent"
 
+# How full the tank is (common practice, from memory): a low tank uncovers the suction or
+# draws the settled water and dirt from the bottom.
+LOW_LEVEL_BANDS = (
+    Band("act", "The tank is only {full} full: the suction is close to uncovered and draws the "
+                "water and dirt that settle at the bottom; top up to the working level with the "
+                "same oil before running.", under=10.0),
+    Band("watch", "The tank is only {full} full: check that the suction stays well covered at "
+                  "the lowest level in the cycle, and top up to the working level.", under=25.0),
+)
 # Air space above the oil (common practice): room for expansion and for oil coming back.
 AIR_SPACE_BANDS = (
     Band("watch", "Less than a tenth of the tank ({tenth}) is air space: leave room for the oil's "
@@ -68,7 +77,8 @@ AIR_SPACE_BANDS = (
         Output("oil_volume", "Oil in the tank", _V, headline=True),
         Output("oil_level", "Oil level", _MM),
         Output("full_volume", "Full volume", _V),
-        Output("percent_full", "Full", _PCT, "Oil volume as a share of the full volume.", headline=True),
+        Output("percent_full", "Full", _PCT, "Oil volume as a share of the full volume.",
+               headline=True, at_least=0.0, at_most=100.0),
         Output("air_space", "Air space above the oil", _V),
         Output("mode", "Computed", "text"),
     ),
@@ -91,6 +101,8 @@ def tank_volume(shape: str, length: float, width: float, height: float, diameter
                             "percent_full": 100.0 * oil / full, "air_space": full - oil,
                             "mode": mode})
     result.grade(full - oil, AIR_SPACE_BANDS, COMMON_PRACTICE, tenth=Q(0.1 * full, _V))
+    result.grade(100.0 * oil / full, LOW_LEVEL_BANDS, COMMON_PRACTICE,
+                 full=Q(100.0 * oil / full, _PCT))
     result.note("Dimensions are inside dimensions; baffles, pipes and heaters inside the tank "
                 "take up some of the volume, and the oil below the suction inlet cannot be used.")
     if shape == "horizontal":
@@ -140,6 +152,9 @@ LEVEL_NEEDED_BANDS = (
     Band("act", "Even full, this tank holds less than the air-release time of flow: fit a bigger "
                 "tank (about {needed}) or use an oil with a shorter air-release time.",
          over=100.0),
+    Band("act", "Only a brim-full tank holds the air-release time of flow, and no tank runs "
+                "brim-full: fit a bigger tank (about {needed}) or use an oil with a shorter "
+                "air-release time.", at_least=100.0),
     Band("watch", "Keep the level above {level} of the full volume: below it the oil leaves the "
                   "tank before its air has risen out.", over="lowest"),
 )
@@ -176,7 +191,7 @@ LEVEL_NEEDED_BANDS = (
         Output("low_dwell", "Dwell time at the low level", _MIN),
         Output("low_ratio", "Dwell / air-release time at the low level", "ratio"),
         Output("level_needed", "Lowest level for a dwell of the air-release time", _PCT,
-               "Blank when even a full tank falls short."),
+               "Blank when even a full tank falls short.", at_least=0.0, at_most=100.0),
         Output("tank_needed", "Tank volume needed", _V,
                "The larger of: the common-practice minutes of flow, and the air-release time "
                "of flow at the working level."),

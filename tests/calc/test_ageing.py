@@ -131,13 +131,28 @@ def test_rpvot_minutes_equal_percent_of_new():
     (25.0, "act"), (25.1, "watch"), (50.0, "watch"), (50.1, "ok"),
 ])
 def test_trend_levels_at_the_limits(now, level):
-    assert _trend(reserve_before=now + 0.1, reserve_now=now, interval=10.0).level == level
+    assert _trend(reserve_before=now + 0.001, reserve_now=now, interval=10.0).level == level
 
 
-def test_trend_reaching_limit_before_next_sample_is_watched():
-    # Falls 40 points per interval, 35 points left above the limit: reached in 1750 h < 2000 h.
+def test_trend_reaching_limit_before_next_sample_is_acted_on():
+    # Falls 40 points per interval, 35 points left above the limit: reached in 1750 h, before
+    # the next sample at the same interval (2000 h): plan the change now, not after it.
     result = _trend(reserve_before=100.0, reserve_now=60.0, interval=2000.0)
-    assert result.values["hours_to_limit"] == pytest.approx(1750.0) and result.level == "watch"
+    assert result.values["hours_to_limit"] == pytest.approx(1750.0) and result.level == "act"
+    # With the next sample sooner than that, it is the watch level that comes first.
+    assert _trend(reserve_before=100.0, reserve_now=60.0, interval=2000.0,
+                  next_sample=1000.0).level == "watch"
+
+
+def test_trend_reaching_the_watch_level_before_next_sample_is_watched():
+    # The review's case (the tool's defaults): 80 then 62 % of new 2000 h apart falls 18
+    # points per 2000 h, so the 50 % watch level comes in 12 / 18 x 2000 = 1333 h, before the
+    # next sample at 2000 h: watch, not ok. Arithmetic by hand.
+    result = _trend(reserve_before=80.0, reserve_now=62.0, interval=2000.0)
+    assert result.values["hours_to_watch"] == pytest.approx(1333.333, abs=1e-3)
+    assert result.level == "watch"
+    assert _trend(reserve_before=80.0, reserve_now=62.0, interval=2000.0,
+                  next_sample=1000.0).level == "ok"
 
 
 def test_rising_reserve_gives_no_end_date():

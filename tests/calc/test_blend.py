@@ -11,7 +11,7 @@ from calc.tools.blend import viscosity_blend
 from calc.kernel.errors import InputError
 
 DEFAULTS = dict(mode="mix", kv1=46.0, amount1=80.0, kv2=68.0, amount2=20.0, basis="volume",
-                tank_l=200.0, target=50.0)
+                grade="main", tank_l=200.0, target=50.0)
 
 
 def test_blending_number_by_hand():
@@ -109,9 +109,24 @@ def test_same_oil_cannot_reach_a_target():
 @pytest.mark.parametrize("share, level", [(2.0, "ok"), (20.0, "watch"), (50.0, "act")])
 def test_mix_verdict_follows_the_change_from_the_main_oil(share, level):
     # VG 46 with VG 68: 2 % moves it about 1 % (ok, within 5 %, common practice), 20 % about 8 %
-    # (watch, near the +-10 % of ISO 3448), 50 % about 21 % (act: no longer that grade).
+    # (watch: still inside VG 46, 41.4 to 50.6 cSt, ISO 3448), 50 % to 55.7 cSt (act: outside
+    # VG 46, no longer that grade).
     result = viscosity_blend(**{**DEFAULTS, "amount1": 100.0 - share, "amount2": share})
     assert result.level == level
+
+
+def test_mix_is_judged_against_the_grade_that_should_be_in_the_tank():
+    # The review's case: 80 parts of a 50 cSt oil (inside VG 46) with 20 of VG 68 make 53.1 cSt,
+    # outside VG 46's 41.4 to 50.6 cSt (ISO 3448 Table 1): act, although only 6 % off oil A.
+    result = viscosity_blend(**{**DEFAULTS, "kv1": 50.0})
+    assert result.values["kv_mix"] == pytest.approx(53.1, abs=0.05)
+    assert result.level == "act" and "above VG 46" in result.verdicts[0].message.render(
+        lambda v, q: str(v))
+    # Held to VG 68 instead (61.2 to 74.8 cSt), the same mix is below that grade.
+    assert viscosity_blend(**{**DEFAULTS, "kv1": 50.0, "grade": "VG 68"}).level == "act"
+    # A main oil in no grade band (55 cSt, between VG 46 and VG 68) is judged by the change.
+    between = viscosity_blend(**{**DEFAULTS, "kv1": 55.0, "amount1": 98.0, "amount2": 2.0})
+    assert between.level == "ok"
 
 
 def test_four_parts_and_blank_parts():

@@ -112,3 +112,17 @@ def test_band_boundaries_reaching_a_limit_counts():
     falling = lambda v: pick(v, RESERVE_BANDS, {"watch": 50.0, "act": 25.0}).level  # noqa: E731
     assert rising(10.0) == "act" and rising(4.999) == "ok"
     assert falling(25.0) == "act" and falling(50.0001) == "ok"
+
+
+def test_water_is_read_against_saturation_when_the_oil_and_temperature_are_known():
+    # The review's case: 450 ppm is over the 200 ppm watch limit, and the same additive mineral
+    # oil holds only about 338 ppm dissolved at 40 degC (the water-in-oil tool's preset, from
+    # memory): 133 % of saturation, free water, act.
+    answer = bridge.run("oil-condition", {"ppm": 450, "temp": 40, "oil": "mineral-aw"})
+    water = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 450, "temp": 40})
+    assert answer["values"]["water_saturation"] == pytest.approx(
+        450.0 / water["values"]["sat"] * 100.0, rel=1e-12)
+    assert answer["level"] == "act"
+    alone = bridge.run("oil-condition", {"ppm": 450})
+    assert alone["values"]["water_saturation"] is None
+    assert any("saturation" in n for n in alone["notes"])

@@ -141,7 +141,25 @@ def test_all_grades_include_undefined_thin_ones_with_a_reason():
     assert any(n.startswith("VG 2 has no oil") for n in answer["notes"])
 
 
-def test_reading_at_40c_too_thin_for_its_vi_names_the_reading():
-    # 1 cSt at 40 degC is below H = 6.394 cSt at KV100 2 cSt (D2270 Table 1): no VI 100 oil.
-    answer = bridge.run("viscosity-grade", {"kv": 1.0})
+def test_reading_elsewhere_too_thin_for_its_vi_names_the_reading():
+    # 1 cSt at 60 degC traces back to a KV40 below H = 6.394 cSt at KV100 2 cSt (D2270
+    # Table 1): no VI 100 oil reads that, and the reading is named.
+    answer = bridge.run("viscosity-grade", {"kv": 1.0, "temp": 60})
     assert not answer["ok"] and answer["errors"][0]["field"] == "kv"
+
+
+def test_a_40c_reading_classifies_without_a_kv100():
+    # VG 2 to VG 10 at 40 degC need no KV100 to classify (ISO 3448 grades are by KV40 alone);
+    # D2270 has no KV100 for a VI-100 oil of 2.2 cSt, so none is given, and it says why.
+    answer = bridge.run("viscosity-grade", {"kv": 2.2, "grade": "VG 2"})
+    assert answer["ok"] and answer["values"]["band"] == "inside VG 2"
+    assert answer["values"]["kv100"] is None and answer["level"] == "ok"
+    assert any("2 cSt" in n or "D2270" in n for n in answer["notes"])
+
+
+def test_a_limit_of_the_standard_is_compared_as_written():
+    # 50.6 cSt is VG 46's upper limit (ISO 3448 Table 1); 50.6 / 46 - 1 computes as
+    # 10.0000000000001 %, which must not read as over it (ASTM E29 rounding method).
+    answer = bridge.run("viscosity-grade", {"kv": 50.6, "grade": "VG 46"})
+    assert answer["values"]["band"] == "inside VG 46" and answer["level"] == "ok"
+    assert bridge.run("viscosity-grade", {"kv": 50.7, "grade": "VG 46"})["level"] == "act"

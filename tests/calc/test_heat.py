@@ -4,6 +4,7 @@ import math
 
 import pytest
 
+from calc import bridge
 from calc.kernel.constants import STEFAN_BOLTZMANN
 from calc.methods.convection import air_properties, radiation_coefficient
 from calc.kernel.errors import InputError
@@ -161,3 +162,23 @@ def test_warmup_chart_is_a_safe_svg_of_a_rising_curve():
     assert not any("°C" in t for t in texts)
     us_line = next(el for el in us.iter(svg + "polyline") if "oil-line" in el.get("class"))
     assert us_line.get("points") == line.get("points")
+
+
+def test_no_reachable_steady_state_is_not_shown_as_a_number():
+    # The review's case: a 15 kW throttle loss on the default tank would settle near 293 degC
+    # by the balance, past the seals' limit (about 100 degC, common practice, from memory) and
+    # the oil's flash point: no number, an act, and the cooler it needs.
+    answer = bridge.run("tank-heat", {"load_from": "throttle"})
+    assert answer["values"]["steady"] is None and answer["level"] == "act"
+    assert "must not run like this" in answer["verdicts"][0]["message"]
+    assert answer["values"]["cooler"] > 0.9 * answer["values"]["load"]
+
+
+def test_a_few_kelvin_over_the_target_is_a_watch_not_a_stop():
+    # 4 kW at 80 % efficiency (0.8 kW) settles a few kelvin over the 55 degC target: plan a
+    # small cooler or more air; "do not run" is kept for oil past 80 degC (common practice).
+    near = bridge.run("tank-heat", {"power": 4.0})
+    assert 55.0 < near["values"]["steady"] < 60.0 and near["level"] == "watch"
+    assert "do not run" not in near["verdicts"][0]["message"]
+    hot = bridge.run("tank-heat", {"power": 10.0})
+    assert hot["values"]["steady"] > 80.0 and "do not run" in hot["verdicts"][0]["message"]

@@ -8,7 +8,7 @@ hypothesis = pytest.importorskip("hypothesis")
 from hypothesis import given, settings, strategies as st  # noqa: E402
 
 from calc import bridge  # noqa: E402
-from calc.kernel import registry
+from calc.kernel import registry, units
 
 TOOLS = registry.tools()
 
@@ -52,9 +52,17 @@ def test_any_input_gives_an_answer_or_named_errors(tool_id):
     @given(_inputs_strategy(found))
     def check(inputs):
         answer = bridge.run(tool_id, inputs)
+        assert "bug" not in answer, answer.get("bug")
         if answer["ok"]:
             assert _all_finite(answer["values"])
             assert all(v["message"] for v in answer["verdicts"])
+            for out in found.outputs:  # no absolute pressure below zero, no temperature below
+                value = answer["values"].get(out.key)  # absolute zero, no level over 100 %
+                low, high = out.bounds
+                if isinstance(value, float):
+                    metric = units.to_metric(value, out.quantity, "metric")
+                    assert low is None or metric >= low, (out.key, metric)
+                    assert high is None or metric <= high, (out.key, metric)
         else:
             assert answer["errors"]
             for err in answer["errors"]:

@@ -132,3 +132,23 @@ def test_low_level_above_working_level_is_refused():
     with pytest.raises(InputError) as err:
         tank_sizing(500.0, 100.0, "industrial", 60.0, 2.0, "yes", low_level=70.0)
     assert err.value.field == "low_level"
+
+
+def test_a_brim_full_tank_is_not_a_level_to_keep():
+    # The review's case: 500 L for 100 L/min at 80 % and 5 min air release needs the level at
+    # 100 * 5 * 100 / 500 = 100 % of full: no level to keep above; act, fit a bigger tank.
+    answer = bridge.run("tank-sizing", {"tank_volume": 500})
+    assert answer["values"]["level_needed"] == pytest.approx(100.0)
+    messages = " ".join(v["message"] for v in answer["verdicts"])
+    assert "above 100" not in messages and "bigger tank" in messages
+    assert answer["level"] == "act"
+
+
+def test_a_nearly_empty_tank_is_flagged():
+    # The review's case: 20 mm in the default 1200 x 800 x 700 mm tank is 2.9 % full: the
+    # suction is close to uncovered (common practice: act under 10 %, watch under 25 %).
+    low = bridge.run("tank-volume", {"level": 20})
+    assert low["values"]["percent_full"] == pytest.approx(20 / 700 * 100)
+    assert low["level"] == "act"
+    assert bridge.run("tank-volume", {"level": 150})["level"] == "watch"
+    assert bridge.run("tank-volume", {"level": 550})["level"] == "ok"
