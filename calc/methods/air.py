@@ -77,14 +77,20 @@ def column_compression(volume: float, x0: float, p0_abs_bar: float, p1_abs_bar: 
 
     dV = V0 - V0 [x0 (p0/p1)^(1/n) + (1 - x0) exp(-(p1 - p0) / K_oil)]
 
+    written as V0 [-(1 - x0) expm1(-dp / K_oil) - x0 expm1(-log1p(dp / p0) / n)], dp = p1 - p0,
+    so a tiny pressure rise keeps its precision instead of vanishing in 1 - (nearly 1).
+
     >>> round(column_compression(1.0, 0.0, 1.0, 161.0, 1.0, 16000.0), 6)
     0.00995
     >>> round(column_compression(1.0, 0.01, 1.0, 2.0, 1.0, 1.0e12), 6)
     0.005
+    >>> column_compression(1.0, 0.01, 1.0, 1.0 + 1e-15, 1.0, 16000.0) > 0.0
+    True
     """
-    air = x0 * (p0_abs_bar / p1_abs_bar) ** (1.0 / n)
-    oil = (1.0 - x0) * math.exp(-(p1_abs_bar - p0_abs_bar) / k_oil_bar)
-    return volume * (1.0 - air - oil)
+    dp = p1_abs_bar - p0_abs_bar
+    oil = -(1.0 - x0) * math.expm1(-dp / k_oil_bar)
+    air = -x0 * math.expm1(-math.log1p(dp / p0_abs_bar) / n)
+    return volume * (oil + air)
 
 
 def piston_area_mm2(bore_mm: float) -> float:

@@ -20,11 +20,22 @@ def test_vertical_plate_churchill_chu(ra, pr):
     assert nu_vertical_plate(ra, pr) == pytest.approx(ht.Nu_vertical_plate_Churchill(pr, ra / pr), rel=1e-12)
 
 
-@pytest.mark.parametrize("ra", RAYLEIGHS)
+@pytest.mark.parametrize("ra", [r for r in RAYLEIGHS if not 4.7e6 < r <= 1e7] + [4.6e6, 1.01e7])
 def test_hot_plate_facing_up_mcadams(ra):
-    # ht.conv_free_immersed.Nu_horizontal_plate_McAdams, buoyancy-assisted (McAdams 1954).
+    # ht.conv_free_immersed.Nu_horizontal_plate_McAdams, buoyancy-assisted (McAdams 1954),
+    # outside the window where calc switches forms early to stay continuous.
     assert nu_plate_hot_side_up(ra) == pytest.approx(
         ht.Nu_horizontal_plate_McAdams(0.7, ra / 0.7, buoyancy=True), rel=1e-12)
+
+
+@pytest.mark.parametrize("ra", [5e6, 8e6, 1e7])
+def test_hot_plate_facing_up_switches_where_the_forms_meet(ra):
+    # Between 4.7e6 (where 0.54 Ra^1/4 = 0.15 Ra^1/3) and 1e7 calc takes McAdams' upper form,
+    # at most 6.5 % above ht's lower one: the published forms jump by 6.4 % at 1e7.
+    mine = nu_plate_hot_side_up(ra)
+    published = ht.Nu_horizontal_plate_McAdams(0.7, ra / 0.7, buoyancy=True)
+    assert mine == pytest.approx(0.15 * ra ** (1.0 / 3.0), rel=1e-12)
+    assert 1.0 <= mine / published <= 1.065
 
 
 @pytest.mark.parametrize("ra", RAYLEIGHS + [1e10, 5e10])
