@@ -41,15 +41,23 @@ def _bug(tool_id: object, err: BaseException) -> dict:
                     "traceback": "".join(traceback.format_exception(err))[-4000:]}}
 
 
+def _shower(system: str):
+    """`show(value, quantity)` in `system`, metric when the system itself is bad."""
+    try:
+        system = units.check_system(system)
+    except InputError:
+        system = "metric"
+    return lambda value, quantity: units.show(value, quantity, system)
+
+
 def run(tool_id: str, inputs: dict | None = None, system: str = "metric") -> dict:
     """Run one tool on typed inputs; never raises, whatever the inputs."""
     try:
-        system = units.check_system(system)
         found = registry.get(tool_id)
-        result = found.run(dict(inputs or {}), system)
-        return present(found, result, system)
+        result = found.run(dict(inputs or {}), units.check_system(system))
+        return present(found, result, units.check_system(system))
     except InputError as err:
-        return {"tool": tool_id, "ok": False, "errors": err.as_list()}
+        return {"tool": tool_id, "ok": False, "errors": err.as_list(_shower(system))}
     except Exception as err:  # noqa: BLE001 - a fault in a tool must reach the page as data
         return _bug(tool_id, err)
 
@@ -122,7 +130,7 @@ def reexpress_json(request: str) -> str:
         return json.dumps(reexpress(message["tool"], message.get("inputs") or {},
                                     message.get("from"), message.get("to")), ensure_ascii=False)
     except InputError as err:
-        return json.dumps({"errors": err.as_list()})
+        return json.dumps({"errors": err.as_list(_shower(message.get("to")))})
 
 
 def run_json(request: str) -> str:

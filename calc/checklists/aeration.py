@@ -154,17 +154,19 @@ def _score_oil(board: Scoreboard, grade: str, air_release, tendency, stability) 
                   Q(tendency, "foam_ml"), Q(limits.tendency_24, "foam_ml"))
     elif sequences and "contamination" not in patterns:
         board.add_each(("contaminated-oil", "antifoam-lost"), AGAINST,
-                       f"sequence I foam within the limits for {grade}")
+                       "sequence I foam within the limits for {grade}", grade=Q(grade, "text"))
     if air_release is None:
         return
     args = (Q(air_release, "minutes"), Q(limits.air_release_min, "minutes"))
     if air_release > limits.air_release_min:
-        reason = f"air release {{0}} against {{1}} allowed for {grade}"
-        board.add_each(("contaminated-oil", "antifoam-overdose"), MODERATE, reason, *args)
-        board.add("wrong-topup", WEAK, reason, *args)
+        reason = "air release {0} against {1} allowed for {grade}"
+        board.add_each(("contaminated-oil", "antifoam-overdose"), MODERATE, reason, *args,
+                       grade=Q(grade, "text"))
+        board.add("wrong-topup", WEAK, reason, *args, grade=Q(grade, "text"))
     else:
         board.add("antifoam-overdose", AGAINST,
-                  f"air release {{0}}, within the {{1}} allowed for {grade}", *args)
+                  "air release {0}, within the {1} allowed for {grade}", *args,
+                  grade=Q(grade, "text"))
     if "antifoam-overdose" in patterns:
         board.add("antifoam-overdose", STRONG,
                   "foam passes while the air release is long: typical of too much antifoam")

@@ -11,8 +11,8 @@ from __future__ import annotations
 from ..kernel.grading import Band
 from ..kernel.registry import Field, Output
 from ..kernel.result import COMMON_PRACTICE, Q, Result
-from ..methods.cleanliness import TOP_SCALE, check_code_order, worst_excess
-from ..tools.cleanliness import COMPONENT_CHOICES, target_code
+from ..methods.cleanliness import TOP_SCALE, format_code, worst_excess
+from ..tools.cleanliness import COMPONENT_CHOICES, code_from_fields, target_code
 from .scoreboard import MODERATE, STRONG, WEAK, Cause, Check, Scoreboard, Symptom, checklist
 
 CAUSES = (
@@ -116,12 +116,10 @@ def _code_field(key: str, label: str) -> Field:
 
 
 def _code(code_4, code_6, code_14):
-    """The entered code (blank sizes as None), or None when nothing was entered."""
-    code = (code_4, code_6, code_14)
-    if all(c is None for c in code):
+    """The entered code as whole scale numbers (blank sizes as None), None when none entered."""
+    if all(c is None for c in (code_4, code_6, code_14)):
         return None
-    check_code_order(code, "code_6")
-    return code
+    return code_from_fields("code_", (code_4, code_6, code_14))
 
 
 @checklist(
@@ -163,12 +161,11 @@ def checklist_contamination(board: Scoreboard, found: Result, component, pressur
     found.values["steps_over"] = None if over is None else float(over)
     if over is None:
         return
-    shown = "/".join("-" if c is None else f"{c:g}" for c in code)
-    aim = "/".join(str(t) for t in target)
     if over >= 1:
         board.add_each(("breather-ingress", "filter-bypass", "dirty-topup", "repair-dirt"),
-                       WEAK, f"code {shown} is {{0}} steps over the target {aim}",
-                       Q(over, "count"))
+                       WEAK, "code {code} is {over} steps over the target {target}",
+                       code=Q(format_code(code), "text"), over=Q(over, "count"),
+                       target=Q(format_code(target), "text"))
     if over >= 3:
         board.add("filter-bypass", MODERATE, "{0} steps over target: eight times the "
                   "particles or more, the filter is not keeping up", Q(over, "count"))

@@ -104,7 +104,7 @@ SYMPTOMS = (
             (("pump-wear", STRONG, "slower machine or hotter pump: wear inside"),)),
 )
 
-# Common practice (calc.suction): industrial pumps need at least about 0.8 bar absolute at the
+# Common practice (as in the suction-check tool): industrial pumps need at least about 0.8 bar absolute at the
 # inlet; the pump maker's figure takes precedence.
 MIN_INLET_BAR_ABS = suction.P_MIN_BAR
 # Common practice: suction lines are sized for about 0.5 to 1.2 m/s.
@@ -154,5 +154,6 @@ def checklist_noisy_pump(board: Scoreboard, found: Result, inlet_pressure, pump_
                   "practice allows", Q(suction_velocity, "velocity"),
                   Q(MAX_SUCTION_VELOCITY, "velocity"))
     if inlet_pressure is not None and pump_min_inlet is None:
-        found.note("The pump's minimum inlet pressure was taken as 0.8 bar absolute (common "
-                   "practice): the pump maker's data sheet takes precedence.")
+        found.note("The pump's minimum inlet pressure was taken as {p_min} absolute (common "
+                   "practice): the pump maker's data sheet takes precedence.",
+                   p_min=Q(MIN_INLET_BAR_ABS, "absolute_pressure"))

@@ -174,12 +174,9 @@ def checklist_result(board: Scoreboard, readings: int, caution: str,
                    "work through the list in order.")
     else:
         runner_up = ranked[1].score if len(ranked) > 1 else 0.0
-        if top.score - runner_up >= STRONG:
-            sentence = f"Start with: {top.title}; it stands well clear of the other causes."
-        else:
-            sentence = (f"Start with: {top.title}; then the next causes in the list, which "
-                        "score close.")
-        result.add("watch", BASIS, sentence)
+        result.add("watch", BASIS, "Start with: {cause}; it stands well clear of the other "
+                   "causes." if top.score - runner_up >= STRONG else "Start with: {cause}; then "
+                   "the next causes in the list, which score close.", cause=Q(top.title, "text"))
     result.note(caution)
     result.note("The ranking says where to start, not what is wrong: confirm each cause with its "
                 "checks, and follow the equipment maker's manual, local codes and licensed "

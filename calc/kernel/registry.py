@@ -26,8 +26,8 @@ from typing import Callable
 
 from . import units
 from .constants import ABSOLUTE_ZERO_C
-from .errors import InputError
-from .result import Result
+from .errors import InputError, typed
+from .result import Q, Result
 
 # The packages whose modules declare tools and checklists.
 PACKAGES = ("calc.tools", "calc.checklists")
@@ -135,13 +135,14 @@ class Field:
             if self.optional:
                 return None
             if self.default is None:
-                raise InputError(self.key, f"{self.label} is needed")
+                raise InputError(self.key, "{label} is needed", label=Q(self.label, "text"))
             return self.default
         if self.is_choice:
             value = str(raw).strip()
             allowed = [c[0] for c in self.choices]
             if value not in allowed:
-                raise InputError(self.key, f"must be one of {', '.join(allowed)}, not {value!r}")
+                raise InputError(self.key, "must be one of {allowed}, not {typed}",
+                                 allowed=Q(", ".join(allowed), "text"), typed=typed(value))
             return value
         value = units.to_metric(units.parse_number(raw, self.key), self.quantity, system)
         self.check_range(value, system)
@@ -149,19 +150,20 @@ class Field:
 
     def check_range(self, value: float, system: str) -> None:
         if self.quantity == "temperature" and value <= ABSOLUTE_ZERO_C:
-            raise InputError(self.key, "is at or below absolute zero (-273.15 °C, -459.67 °F)")
+            raise InputError(self.key, "is at or below absolute zero ({zero})",
+                             zero=Q(ABSOLUTE_ZERO_C, "temperature"))
         low_ok = self.min is None or value >= self.min
         high_ok = self.max is None or value <= self.max
         if low_ok and high_ok:
             return
-        show = lambda v: units.show(v, self.quantity, system)  # noqa: E731
+        named = dict(label=Q(self.label, "text"), low=Q(self.min, self.quantity),
+                     high=Q(self.max, self.quantity), value=Q(value, self.quantity))
         if self.min is not None and self.max is not None:
-            allowed = f"between {show(self.min)} and {show(self.max)}"
-        elif self.min is not None:
-            allowed = f"at least {show(self.min)}"
-        else:
-            allowed = f"at most {show(self.max)}"
-        raise InputError(self.key, f"{self.label} must be {allowed}, not {show(value)}")
+            raise InputError(self.key, "{label} must be between {low} and {high}, not {value}",
+                             **named)
+        if self.min is not None:
+            raise InputError(self.key, "{label} must be at least {low}, not {value}", **named)
+        raise InputError(self.key, "{label} must be at most {high}, not {value}", **named)
 
     def describe(self, system: str = "metric") -> dict:
         """This field for the catalogue, in `system` units."""
@@ -199,7 +201,7 @@ def _parse_flag(raw: object, key: str) -> bool:
         return True
     if word in _FALSE:
         return False
-    raise InputError(key, f"is a tick box: yes or no, not {str(raw).strip()!r}")
+    raise InputError(key, "is a tick box: yes or no, not {typed}", typed=typed(raw))
 
 
 # The least value a quantity can physically take, whatever the tool.
@@ -297,10 +299,12 @@ class Tool:
         """All inputs in metric units, every bad field reported at once."""
         unknown = sorted(set(raw) - {f.key for f in self.inputs})
         retired = dict(self.retired)
-        errors = [InputError(k, f"is no longer an input of {self.id}: {retired[k]}")
+        inputs = Q(", ".join(f.key for f in self.inputs), "text")
+        errors = [InputError(k, "is no longer an input of {tool}: {instead}",
+                             tool=Q(self.id, "text"), instead=Q(retired[k], "text"))
                   if k in retired else
-                  InputError(k, f"is not an input of {self.id}; inputs are "
-                                f"{', '.join(f.key for f in self.inputs)}") for k in unknown]
+                  InputError(k, "is not an input of {tool}; inputs are {inputs}",
+                             tool=Q(self.id, "text"), inputs=inputs) for k in unknown]
         values = {}
         for f in self.inputs:
             try:
@@ -443,5 +447,6 @@ def of_kind(kind: str) -> dict[str, Tool]:
 def get(tool_id: str) -> Tool:
     found = tools().get(tool_id)
     if found is None:
-        raise InputError("tool", f"no tool {tool_id!r}; run `python -m calc tools` for the list")
+        raise InputError("tool", "no tool {typed}; run `python -m calc tools` for the list",
+                         typed=typed(tool_id))
     return found

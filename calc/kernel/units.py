@@ -21,7 +21,8 @@ from typing import Callable
 
 from .constants import (FOOT_IN_M, GAL_IN_L, HP_IN_KW, INCH_IN_MM, LB_IN_KG, LBF_IN_KN,
                         PSI_IN_BAR)
-from .errors import InputError
+from .errors import InputError, typed
+from .result import Q
 
 SYSTEMS = ("metric", "us")
 
@@ -102,7 +103,8 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("hours", "h", digits=4),
     _quantity("seconds", "s"),
     _quantity("per_bar", "1/bar", "1/psi", 1.0 / PSI_IN_BAR),
-    _quantity("vi", "", digits=4),
+    _quantity("vi", "", decimals=0),  # ASTM D2270 reports VI as a whole number
+    _quantity("vi_unrounded", "", decimals=2),
     _quantity("text", ""),
 )}
 
@@ -117,7 +119,8 @@ def quantity(name: str) -> Quantity:
 def check_system(system: str | None) -> str:
     system = (system or "metric").strip().lower()
     if system not in SYSTEMS:
-        raise InputError("units", f"unit system must be one of {', '.join(SYSTEMS)}, not {system!r}")
+        raise InputError("units", "unit system must be one of {systems}, not {typed}",
+                         systems=Q(", ".join(SYSTEMS), "text"), typed=typed(system))
     return system
 
 
@@ -168,7 +171,7 @@ def parse_number(text: object, field: str) -> float:
         try:
             value = float(raw)
         except ValueError:
-            raise InputError(field, f"must be a number, not {str(text).strip()!r}") from None
+            raise InputError(field, "must be a number, not {typed}", typed=typed(text)) from None
     if not math.isfinite(value):
         raise InputError(field, "must be a finite number")
     return value

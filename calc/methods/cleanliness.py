@@ -16,7 +16,8 @@ ISO 3722 (sample bottle cleanliness), cited from memory.
 
 from __future__ import annotations
 
-from ..kernel.errors import InputError
+from ..kernel.errors import InputError, typed
+from ..kernel.result import Q
 
 
 # ISO 4406:2021 table 1: (scale number, more than, up to and including) particles per mL.
@@ -116,7 +117,8 @@ def parse_code(text: str, field: str = "code") -> Code:
     if len(parts) == 2:
         parts = ["-"] + parts
     if len(parts) != 3:
-        raise InputError(field, f"an ISO 4406 code has three numbers like 18/16/13, not {text!r}")
+        raise InputError(field, "an ISO 4406 code has three numbers like 18/16/13, not {typed}",
+                         typed=typed(text))
     code = []
     for part in parts:
         number = part.lstrip("≥").strip()  # "≥": fewer than 20 particles counted
@@ -127,18 +129,28 @@ def parse_code(text: str, field: str = "code") -> Code:
         elif number.isascii() and number.isdigit() and int(number) <= TOP_SCALE:
             code.append(int(number))
         else:
-            raise InputError(field, f"each part of the code is a scale number 0 to {TOP_SCALE} "
-                                    f"or '-', not {part!r}")
+            raise InputError(field, "each part of the code is a scale number 0 to {top} or '-', "
+                                    "not {typed}", top=Q(float(TOP_SCALE), "count"),
+                             typed=typed(part))
     check_code_order(tuple(code), field)
     return tuple(code)
 
 
-def check_code_order(code: Code, field: str) -> None:
-    """InputError unless the scale numbers fall (or stay) from small to large particles."""
-    present = [n for n in code if n is not None]
-    if any(b > a for a, b in zip(present, present[1:])):
-        raise InputError(field, "counts are cumulative: a larger size cannot have a higher "
-                                "scale number than a smaller size")
+def check_code_order(code: Code, field: str, prefix: str | None = None) -> None:
+    """InputError unless the scale numbers fall (or stay) from small to large particles: on
+    `field`, or, with `prefix`, on the field of the size that breaks the order ("code6").
+
+    >>> check_code_order((14, 16, 13), "code", "code")
+    Traceback (most recent call last):
+    ...
+    calc.kernel.errors.InputError: code6: counts are cumulative: a larger size cannot have a higher scale number than a smaller size
+    """
+    known = [(size, n) for size, n in zip(SIZES_UM, code) if n is not None]
+    for (_, smaller), (size, larger) in zip(known, known[1:]):
+        if larger > smaller:
+            raise InputError(field if prefix is None else f"{prefix}{size}",
+                             "counts are cumulative: a larger size cannot have a higher "
+                             "scale number than a smaller size")
 
 
 def code_excess(measured: Code, target: Code) -> tuple[int | None, ...]:

@@ -27,6 +27,7 @@ import math
 
 from ..kernel.constants import ZERO_CELSIUS_K
 from ..kernel.errors import InputError
+from ..kernel.result import Q
 from ..kernel.solve import find_root
 from .iso3448 import grade_midpoint
 from .viscosity_index import KV100_MIN_CST, kv40_from_vi, kv100_from_vi
@@ -144,9 +145,12 @@ def check_two_points(temp1_c: float, kv1_cst: float, temp2_c: float, kv2_cst: fl
     f_t1, f_kv1, f_t2, f_kv2 = fields
     for key, kv in ((f_kv1, kv1_cst), (f_kv2, kv2_cst)):
         if not KV_MIN_CST <= kv <= KV_MAX_CST:
-            raise InputError(key, f"must be between {KV_MIN_CST} and {KV_MAX_CST:g} cSt (ASTM D341 range)")
+            raise InputError(key, "must be between {low} and {high} (ASTM D341 range)",
+                             low=Q(KV_MIN_CST, "kinematic_viscosity"),
+                             high=Q(KV_MAX_CST, "kinematic_viscosity"))
     if abs(temp2_c - temp1_c) < 1.0:
-        raise InputError(f_t2, "the two readings must be at least 1 °C apart")
+        raise InputError(f_t2, "the two readings must be at least {gap} apart",
+                         gap=Q(1.0, "temperature_difference"))
     warm_kv, cold_kv = (kv2_cst, kv1_cst) if temp2_c > temp1_c else (kv1_cst, kv2_cst)
     warm_key = f_kv2 if temp2_c > temp1_c else f_kv1
     if warm_kv >= cold_kv:
@@ -182,9 +186,11 @@ def kv40_from_reading(kv_cst: float, temp_c: float, vi: float) -> tuple[float, f
     top = 1.0e4
     if excess(KV100_MIN_CST) > 0.0:
         raise InputError("kv", "too thin to classify: an oil of this VI reading that low would "
-                               "have KV100 below 2 cSt, outside ASTM D2270")
+                               "have KV100 below {least}, outside ASTM D2270",
+                         least=Q(KV100_MIN_CST, "kinematic_viscosity"))
     if excess(top) < 0.0:
-        raise InputError("kv", "too thick to trace back to 40 °C (KV100 above 10 000 cSt)")
+        raise InputError("kv", "too thick to trace back to {forty} (KV100 above {top})",
+                         forty=Q(40.0, "temperature"), top=Q(top, "kinematic_viscosity"))
     kv100 = find_root(excess, KV100_MIN_CST, top)
     return kv40_from_vi(kv100, vi), kv100
 

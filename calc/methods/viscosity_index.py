@@ -28,10 +28,12 @@ import math
 from bisect import bisect_left
 
 from ..kernel.errors import InputError
+from ..kernel.result import Q
 from ..kernel.solve import find_root
 
 
 KV100_MIN_CST = 2.0  # D2270 does not define VI below this KV100
+_KV = "kinematic_viscosity"
 
 
 TABLE_TOP_CST = 70.0  # above this KV100, the standard's equations replace Table 1
@@ -201,13 +203,14 @@ def kv100_from_vi(kv40_cst: float, vi: float) -> float:
     """
     lowest = kv40_from_vi(KV100_MIN_CST, vi)
     if lowest > kv40_cst:
-        raise InputError("kv40", f"an oil of VI {vi:g} with KV100 at least 2 cSt (the least D2270 "
-                                 f"allows) has KV40 at least {lowest:.4g} cSt; {kv40_cst:.4g} cSt "
-                                 "is too thin for that VI")
+        raise InputError("kv40", "an oil of VI {vi} with KV100 at least {least} (the least D2270 "
+                                 "allows) has KV40 at least {lowest}; {kv40} is too thin for that "
+                                 "VI", vi=Q(vi, "vi"), least=Q(KV100_MIN_CST, _KV),
+                         lowest=Q(lowest, _KV), kv40=Q(kv40_cst, _KV))
     found = find_root(lambda y: kv40_from_vi(y, vi) - kv40_cst, KV100_MIN_CST, kv40_cst)
     if found is None:
-        raise InputError("vi", f"no KV100 below the KV40 of {kv40_cst:.4g} cSt gives a VI of "
-                               f"{vi:g}; check the VI")
+        raise InputError("vi", "no KV100 below the KV40 of {kv40} gives a VI of {vi}; check the "
+                               "VI", kv40=Q(kv40_cst, _KV), vi=Q(vi, "vi"))
     return found
 
 
@@ -216,9 +219,10 @@ def check_kv40_kv100(kv40_cst: float, kv100_cst: float) -> None:
 
     >>> check_kv40_kv100(46.0, 1.9)
     Traceback (most recent call last):
-    calc.kernel.errors.InputError: kv100: ASTM D2270 defines VI only for KV100 of 2 cSt and above
+    calc.kernel.errors.InputError: kv100: ASTM D2270 defines VI only for KV100 of 2.00 cSt and above
     """
     if kv100_cst < KV100_MIN_CST:
-        raise InputError("kv100", "ASTM D2270 defines VI only for KV100 of 2 cSt and above")
+        raise InputError("kv100", "ASTM D2270 defines VI only for KV100 of {least} and above",
+                         least=Q(KV100_MIN_CST, _KV))
     if kv100_cst >= kv40_cst:
         raise InputError("kv100", "KV100 must be lower than KV40 (an oil thins as it warms)")

@@ -49,7 +49,8 @@ def _profile(pairs: tuple[tuple[float | None, float | None], ...]) -> list[tuple
     for row, (hours, temp) in enumerate(pairs, start=1):
         if (hours is None) != (temp is None):
             missing = f"temp{row}" if temp is None else f"hours{row}"
-            raise InputError(missing, f"profile row {row} needs both hours and a temperature")
+            raise InputError(missing, "profile row {row} needs both hours and a temperature",
+                             row=Q(float(row), "count"))
         if hours is not None:
             rows.append((hours, temp))
     return rows

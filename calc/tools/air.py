@@ -102,8 +102,8 @@ def air_stiffness(air: float, pressure: float, process: str, k_oil: float, atmos
     p_abs = atmosphere + pressure
     p_load = load_pressure_bar(load, bore)
     if p_load > LOAD_PRESSURE_MAX_BAR:
-        raise InputError("load", f"needs more than {LOAD_PRESSURE_MAX_BAR:g} bar on this bore; "
-                                 "check the load and the bore")
+        raise InputError("load", "needs more than {most} on this bore; check the load and the "
+                                 "bore", most=Q(LOAD_PRESSURE_MAX_BAR, _P))
     x = air_fraction_at_pressure(x0, p_abs, atmosphere, 1.0, k_oil)  # settled: isothermal
     k_eff = effective_bulk_modulus(k_oil, x, p_abs, n)
     area = piston_area_mm2(bore)

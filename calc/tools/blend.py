@@ -118,11 +118,12 @@ def _mix_parts(kvs: list[float | None], amounts: list[float | None]) -> tuple[li
         if kv is None and amount is None:
             continue
         if kv is None:
-            raise InputError(f"kv{n}", f"oil {n} has an amount but no viscosity: enter its "
-                                       f"viscosity or clear its amount")
+            raise InputError(f"kv{n}", "oil {n} has an amount but no viscosity: enter its "
+                                       "viscosity or clear its amount", n=Q(float(n), "count"))
         if amount is None:
-            raise InputError(f"amount{n}", f"oil {n} has a viscosity but no amount: enter its "
-                                           f"amount (0 leaves it out) or clear its viscosity")
+            raise InputError(f"amount{n}", "oil {n} has a viscosity but no amount: enter its "
+                                           "amount (0 leaves it out) or clear its viscosity",
+                             n=Q(float(n), "count"))
         if amount > 0:
             used_kv.append(kv)
             used_amount.append(amount)
@@ -167,9 +168,9 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
                                 "the viscosity")
     low, high = sorted((kv_a, kv_b))
     if not low <= target <= high or target == kv_b:
-        raise InputError("target", f"must lie between oil A ({kv_a:g} cSt) and oil B "
-                                   f"({kv_b:g} cSt), and not equal B: a mix of two oils always "
-                                   f"lies between them")
+        raise InputError("target", "must lie between oil A ({kv_a}) and oil B ({kv_b}), and not "
+                                   "equal B: a mix of two oils always lies between them",
+                         kv_a=Q(kv_a, _KV), kv_b=Q(kv_b, _KV))
     if capacity_l is not None and capacity_l < tank_l:
         raise InputError("capacity_l", "the tank's capacity must be at least the oil already in it")
     fraction_b = top_up_fraction(kv_a, kv_b, target)

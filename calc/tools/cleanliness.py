@@ -101,9 +101,10 @@ def code_from_fields(prefix: str, values: tuple[float | None, ...]) -> Code:
     code = []
     for size, value in zip(SIZES_UM, values):
         if value is not None and value != int(value):
-            raise InputError(f"{prefix}{size}", "a scale number is a whole number, 0 to 28")
+            raise InputError(f"{prefix}{size}", "a scale number is a whole number, 0 to {top}",
+                             top=Q(float(TOP_SCALE), "count"))
         code.append(None if value is None else int(value))
-    check_code_order(tuple(code), f"{prefix}{SIZES_UM[-1]}")
+    check_code_order(tuple(code), f"{prefix}{SIZES_UM[-1]}", prefix)
     return tuple(code)
 
 

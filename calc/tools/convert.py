@@ -53,17 +53,20 @@ def _check_value(value: float, unit: str, temp_f: float) -> None:
     if kind == "temperature":
         temp_c = value if unit == "c" else fahrenheit_to_celsius(value)
         if temp_c <= ABSOLUTE_ZERO_C:
-            raise InputError("value", "is at or below absolute zero (-273.15 °C, -459.67 °F)")
+            raise InputError("value", "is at or below absolute zero ({zero})",
+                             zero=Q(ABSOLUTE_ZERO_C, "temperature"))
     elif kind == "pressure":
         return  # gauge pressures below atmospheric are negative
     elif value < 0:
-        raise InputError("value", f"a {kind} cannot be negative")
+        raise InputError("value", "a {kind} cannot be negative", kind=Q(kind, "text"))
     elif unit in _SUS_TEMP_F:
         temp_f = _SUS_TEMP_F[unit] or temp_f
         low, high = (saybolt_seconds(kv, temp_f) for kv in (SUS_KV_MIN_CST, SUS_KV_MAX_CST))
         if not low <= value <= high:
-            raise InputError("value", f"ASTM D2161 covers {low:.1f} to {high:.4g} SUS at this "
-                                      f"temperature ({SUS_KV_MIN_CST} to {SUS_KV_MAX_CST:g} cSt)")
+            raise InputError("value", "ASTM D2161 covers {low} to {high} SUS at this temperature "
+                                      "({kv_low} to {kv_high})", low=Q(low, "seconds"),
+                             high=Q(high, "seconds"), kv_low=Q(SUS_KV_MIN_CST, "kinematic_viscosity"),
+                             kv_high=Q(SUS_KV_MAX_CST, "kinematic_viscosity"))
 
 
 def _to_base(value: float, unit: str, temp_f: float) -> float:
@@ -83,8 +86,10 @@ def _from_base(base: float, unit: str, temp_f: float) -> float:
         return celsius_to_fahrenheit(base)
     if unit in _SUS_TEMP_F:
         if not SUS_KV_MIN_CST <= base <= SUS_KV_MAX_CST:
-            raise InputError("value", f"ASTM D2161 covers {SUS_KV_MIN_CST} to "
-                                      f"{SUS_KV_MAX_CST:g} cSt, not {base:.4g} cSt")
+            raise InputError("value", "ASTM D2161 covers {kv_low} to {kv_high}, not {kv}",
+                             kv_low=Q(SUS_KV_MIN_CST, "kinematic_viscosity"),
+                             kv_high=Q(SUS_KV_MAX_CST, "kinematic_viscosity"),
+                             kv=Q(base, "kinematic_viscosity"))
         return saybolt_seconds(base, _SUS_TEMP_F[unit] or temp_f)
     return base / _FACTOR[unit]
 
@@ -100,9 +105,10 @@ def convert(value: float, from_unit: str, to_unit: str, temp_c: float = 37.77777
     1.01325
     """
     if _KIND[from_unit] != _KIND[to_unit]:
-        raise InputError("to_unit", f"{_LABELS[to_unit]} is a unit of {_KIND[to_unit]}, "
-                                    f"{_LABELS[from_unit]} one of {_KIND[from_unit]}: pick a "
-                                    f"{_KIND[from_unit]} unit to convert to")
+        raise InputError("to_unit", "{to} is a unit of {to_kind}, {frm} one of {kind}: pick a "
+                                    "{kind} unit to convert to", to=Q(_LABELS[to_unit], "text"),
+                         to_kind=Q(_KIND[to_unit], "text"), frm=Q(_LABELS[from_unit], "text"),
+                         kind=Q(_KIND[from_unit], "text"))
     temp_f = celsius_to_fahrenheit(temp_c)
     _check_value(value, from_unit, temp_f)
     return _from_base(_to_base(value, from_unit, temp_f), to_unit, temp_f)

@@ -26,7 +26,7 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
-from ..kernel.errors import InputError
+from ..kernel.errors import InputError, typed
 from ..kernel.grading import Band
 from ..kernel.registry import AIR, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
@@ -82,7 +82,8 @@ def grade_limits(grade: str) -> FoamLimits:
         if name == grade:
             return limits
     names = ", ".join(g for g, _ in GRADE_LIMITS)
-    raise InputError("grade", f"must be one of {names}, not {grade!r}")
+    raise InputError("grade", "must be one of {names}, not {typed}", names=Q(names, "text"),
+                     typed=typed(grade))
 
 
 def foam_sequences(seq1: tuple[float | None, float | None], seq2: tuple[float | None, float | None],
@@ -322,8 +323,8 @@ def foam_air_tests(grade: str, air_release: float | None = None,
     _grade_sequences(result, sequences, limits, act, basis)
     _grade_patterns(result, patterns, air_release, limits, act, grade, basis)
     if not patterns:
-        result.note(f"Enter the lab's foam and air-release results to read them against the "
-                    f"limits shown for {grade}.")
+        result.note("Enter the lab's foam and air-release results to read them against the "
+                    "limits shown for {grade}.", grade=Q(grade, "text"))
     if not own:
         result.note("Preset limits are recalled from ISO 11158 (HM) and DIN 51524-2 (HLP), "
                     "not read from the standard: the oil's data sheet and the machine maker's "

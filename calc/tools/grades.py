@@ -24,6 +24,7 @@ from ..kernel.registry import VISCOSITY, Field, Output, tool
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 from ..kernel.solve import bracket
 from ..methods.viscosity import grade_at_temperatures, kv40_from_reading
+from ..methods.viscosity_index import KV100_MIN_CST
 from .viscosity import PUMP_FIELDS, note_preset_limits, pump_window, window_text
 
 _KV = "kinematic_viscosity"
@@ -104,9 +105,9 @@ def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
         result.note("The reading is in none of the ISO 3448 bands: a mix of two grades, an oil "
                     "that has thickened or thinned in service, or an oil not sold by ISO grade.")
     if temp != 40.0:
-        result.note(f"The reading at {{0}} was traced back to {{1}} assuming VI {vi:g}; a wrong "
-                    "VI shifts the answer more the farther the reading is from {1}. A lab KV40 "
-                    "settles it.", Q(temp, _T), Q(40.0, _T))
+        result.note("The reading at {temp} was traced back to {forty} assuming VI {vi}; a wrong VI "
+                    "shifts the answer more the farther the reading is from {forty}. A lab KV40 "
+                    "settles it.", temp=Q(temp, _T), forty=Q(40.0, _T), vi=Q(vi, "vi"))
     result.note("Take samples at normal running temperature from a sample valve, with gloves and "
                 "eye protection: hot oil burns and oil under pressure can pierce skin. Keep used "
                 "oil and sample bottles for proper disposal.")
@@ -175,14 +176,26 @@ def minimum_vi(grade: str, cold_c: float, hot_c: float, window, fits_at: float,
     return bracket(fits, floor, fits_at, x_tol=0.01, rel_tol=0.0)[1]  # the end that fits
 
 
-_WHY = {
-    "thick_cold": "too thick to start at {0}: {1} at VI {vi}, above the start-up maximum "
-                  "of {2}",
-    "thin": "too thin at {3}: {4} at VI {vi}, below the optimum band",
-    "too_thin": "too thin at {3}: {4} at VI {vi}, below the pump's minimum of {5}",
-    "thick_hot": "heavier than needed: at {3} still {4} at VI {vi}, above the optimum band",
-    "undefined": "has no oil at these VIs (its KV100 would be below 2 cSt, outside ASTM D2270)",
+# Why a grade tried does not fit, at the VI kindest to it.
+WHY_NOT = {
+    "thick_cold": "{grade} is too thick to start at {cold}: {kv_cold} at VI {vi}, above the "
+                  "start-up maximum of {start_max}.",
+    "thin": "{grade} is too thin at {hot}: {kv_hot} at VI {vi}, below the optimum band.",
+    "too_thin": "{grade} is too thin at {hot}: {kv_hot} at VI {vi}, below the pump's minimum of "
+                "{minimum}.",
+    "thick_hot": "{grade} is heavier than needed: at {hot} still {kv_hot} at VI {vi}, above the "
+                 "optimum band.",
+    "undefined": "{grade} has no oil at these VIs (its KV100 would be below {least}, outside "
+                 "ASTM D2270).",
 }
+FIT_BANDS = (  # graded on the number of grades that fit (common practice)
+    Band("ok", "{best} at VI {vi} fits: {kv_cold} at the coldest start of {cold} (start-up "
+               "limit {start_max}) and {kv_hot} at {hot}, inside the optimum band.",
+         at_least=1.0),
+    Band("act", "No grade tried keeps the oil inside the pump's window from {cold} to {hot}: "
+                "heat the tank before start-up, improve cooling, or ask the pump maker for its "
+                "limits."),
+)
 
 
 @tool(
@@ -237,7 +250,8 @@ def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, gr
     result = Result(values={"best_grade": "none", "best_vi": None, "vi_pick": None,
                             "kv_cold": None, "kv_hot": None, "fits": fits_text,
                             "window": window_text(window)})
-    cold_q, hot_q = Q(temp_cold, _T), Q(temp_hot, _T)
+    named = dict(cold=Q(temp_cold, _T), hot=Q(temp_hot, _T), start_max=Q(start_max, _KV),
+                 minimum=Q(minimum, _KV))
     if fitting:
         # Lowest VI needed first (high-VI oils cost more and lose VI by shear); then the grade
         # whose hot viscosity sits nearest the middle of the optimum band.
@@ -247,15 +261,11 @@ def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, gr
         vi_pick, _, kv_cold, kv_hot = fitting[best][0]
         result.values.update(best_grade=best, best_vi=least[best], vi_pick=vi_pick,
                              kv_cold=kv_cold, kv_hot=kv_hot)
-        result.add("ok", COMMON_PRACTICE,
-                   f"{best} at VI {vi_pick:g} fits: {{0}} at the coldest start of {{1}} "
-                   "(start-up limit {2}) and {3} at {4}, inside the optimum band.",
-                   Q(kv_cold, _KV), cold_q, Q(start_max, _KV), Q(kv_hot, _KV), hot_q)
+        result.grade(float(len(fitting)), FIT_BANDS, COMMON_PRACTICE, best=Q(best, "text"),
+                     vi=Q(vi_pick, "vi"), kv_cold=Q(kv_cold, _KV), kv_hot=Q(kv_hot, _KV),
+                     **named)
     else:
-        result.add("act", COMMON_PRACTICE,
-                   "No grade tried keeps the oil inside the pump's window from {0} to {1}: heat "
-                   "the tank before start-up, improve cooling, or ask the pump maker for its "
-                   "limits.", cold_q, hot_q)
+        result.grade(0.0, FIT_BANDS, COMMON_PRACTICE, **named)
     for g, rows in table.items():
         if g in fitting:
             continue
@@ -263,9 +273,9 @@ def grade_selector(temp_cold: float, temp_hot: float, pump: str, vi_set: str, gr
         # too thick when hot, in which case the lowest VI is the kindest.
         pick = rows[-1] if rows[-1][1] != "thick_hot" else rows[0]
         reason = "too_thin" if pick[1] == "thin" and pick[3] < minimum else pick[1]
-        why = _WHY[reason].replace("{vi}", f"{pick[0]:g}")
-        result.note(f"{g} {why}.", cold_q, Q(pick[2], _KV), Q(start_max, _KV), hot_q,
-                    Q(pick[3], _KV), Q(minimum, _KV))
+        result.note(WHY_NOT[reason], grade=Q(g, "text"), vi=Q(pick[0], "vi"),
+                    kv_cold=Q(pick[2], _KV), kv_hot=Q(pick[3], _KV),
+                    least=Q(KV100_MIN_CST, _KV), **named)
     result.note("Below the oil's pour point the D341 line no longer holds: check the data "
                 "sheet's pour point against the coldest start. High-VI oils thickened with "
                 "polymers lose some VI in service; leave a margin.")

@@ -42,7 +42,7 @@ RELIABLE_BANDS = (
 
 def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> float:
     if abs(p2 - p1) < 1.0:
-        raise InputError("p2", "the two readings must be at least 1 bar (14.5 psi) apart")
+        raise InputError("p2", "the two readings must be at least {gap} apart", gap=Q(1.0, _P))
     (p_low, r_low), (p_high, r_high) = sorted(((p1, reading1), (p2, reading2)))
     high_key = "reading2" if p2 > p1 else "reading1"
     if r_high <= r_low:
@@ -51,7 +51,8 @@ def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> flo
     alpha = barus_alpha(p_low, r_low, p_high, r_high)
     if alpha > ALPHA_MAX_PER_BAR:
         raise InputError(high_key, "the two readings rise faster than any oil does (more than "
-                                   "a factor e every 100 bar): check the readings and pressures")
+                                   "a factor e every {step}): check the readings and pressures",
+                         step=Q(1.0 / ALPHA_MAX_PER_BAR, _P))
     return alpha
 
 

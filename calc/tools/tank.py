@@ -35,9 +35,10 @@ def check_level(shape: str, height_mm: float, diameter_mm: float, level_mm: floa
     """The tank's depth [mm]; InputError on `level` when the oil would stand above it."""
     depth = depth_mm(shape, height_mm, diameter_mm)
     if level_mm > depth:
-        what = "diameter" if shape == "horizontal" else "inside height"
-        raise InputError("level", f"the level ({level_mm:g} mm) cannot be above the tank's {what} "
-                                  f"({depth:g} mm)")
+        raise InputError("level", "the level ({level}) cannot be above the tank's diameter "
+                                  "({depth})" if shape == "horizontal" else
+                         "the level ({level}) cannot be above the tank's inside height ({depth})",
+                         level=Q(level_mm, "length"), depth=Q(depth, "length"))
     return depth
 
 
@@ -94,8 +95,8 @@ def tank_volume(shape: str, length: float, width: float, height: float, diameter
         oil, oil_level, mode = volume_at_level_l(*dims, level), level, "volume from level"
     else:
         if volume > full:
-            raise InputError("volume", f"{volume:g} L does not fit: the tank holds {full:.4g} L "
-                                       "when full")
+            raise InputError("volume", "{volume} does not fit: the tank holds {full} when full",
+                             volume=Q(volume, _V), full=Q(full, _V))
         oil, oil_level, mode = volume, level_for_volume_mm(*dims, volume), "level from volume"
     result = Result(values={"oil_volume": oil, "oil_level": oil_level, "full_volume": full,
                             "percent_full": 100.0 * oil / full, "air_space": full - oil,
@@ -237,9 +238,10 @@ def tank_sizing(tank_volume: float, flow: float, application: str, working_level
     result.note("Return lines should end below the lowest oil level, away from the suction and "
                 "aimed at a wall or through a diffuser, with a low outlet velocity; a return that "
                 "splashes or jets drives air into the oil.")
-    result.note("ISO 9120 measures air release at a set temperature (usually 50 °C): colder, "
-                "thicker oil holds its air longer, and contaminated or wrongly topped-up oil can "
-                "take several times the new-oil figure; retest the oil in service.")
+    result.note("ISO 9120 measures air release at a set temperature (usually {test_temp}): "
+                "colder, thicker oil holds its air longer, and contaminated or wrongly topped-up "
+                "oil can take several times the new-oil figure; retest the oil in service.",
+                test_temp=Q(50.0, "temperature"))
     result.note("At the lowest level the suction inlet must stay well covered, or it draws a "
                 "vortex of air; check it with the tank's sight glass before running.")
     result.sources += ["Tank minutes of pump flow, industrial 3 to 5, mobile 1 to 2: common "

@@ -91,7 +91,8 @@ def oil_from_grade(grade: str, vi: float) -> tuple[float, float]:
     try:
         return kv40, kv100_from_vi(kv40, vi)
     except InputError as err:
-        raise InputError("vi", f"{grade} with VI {vi:g}: {err.message}") from None
+        raise InputError("vi", "{grade} with VI {vi}: {why}", grade=Q(grade, "text"),
+                         vi=Q(vi, "vi"), why=Q(err.message, "text")) from None
 
 
 CHART_W, CHART_H = 400.0, 330.0

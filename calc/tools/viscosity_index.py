@@ -29,7 +29,7 @@ MODES = (("vi", "VI from KV40 and KV100"), ("kv100", "KV100 from KV40 and VI"))
     outputs=(
         Output("vi", "Viscosity index (rounded)", "vi", "Rounded to the nearest whole number, "
                                                         "as ASTM D2270 asks.", headline=True),
-        Output("vi_exact", "Viscosity index before rounding", "vi"),
+        Output("vi_exact", "Viscosity index before rounding", "vi_unrounded"),
         Output("kv100_found", "KV at 100 °C for this VI", _KV),
         Output("l_value", "L (reference oil of VI 0)", _KV,
                "KV40 of the reference oil of VI 0 with the same KV100."),

@@ -45,7 +45,8 @@ def saturation_line(oil: str, cal_temp1: float | None = None, cal_ppm1: float | 
         for key, _label, a, b, t_low, t_high, source in OIL_PRESETS:
             if key == oil:
                 return SaturationLine(a, b, t_low, t_high, source, FROM_MEMORY)
-        raise InputError("oil", f"must be one of {', '.join(c[0] for c in OIL_CHOICES)}")
+        raise InputError("oil", "must be one of {choices}",
+                         choices=Q(", ".join(c[0] for c in OIL_CHOICES), "text"))
     given = dict(zip(CALIBRATION_KEYS, (cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)))
     missing = [InputError(k, "is needed for an own calibration: enter two temperatures and the "
                              "saturation content in ppm at each, from a lab or the oil's data sheet")
@@ -53,8 +54,8 @@ def saturation_line(oil: str, cal_temp1: float | None = None, cal_ppm1: float | 
     if missing:
         raise InputError.combine(missing)
     if abs(cal_temp2 - cal_temp1) < 5.0:
-        raise InputError("cal_temp2", "the two calibration temperatures must be at least "
-                                      "5 °C (9 °F) apart")
+        raise InputError("cal_temp2", "the two calibration temperatures must be at least {gap} "
+                                      "apart", gap=Q(5.0, "temperature_difference"))
     warm_ppm, cold_ppm = (cal_ppm2, cal_ppm1) if cal_temp2 > cal_temp1 else (cal_ppm1, cal_ppm2)
     warm_key = "cal_ppm2" if cal_temp2 > cal_temp1 else "cal_ppm1"
     if warm_ppm <= cold_ppm:

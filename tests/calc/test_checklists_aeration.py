@@ -14,7 +14,8 @@ def _order(result):
 
 
 def _reasons(result, key):
-    return [r.render(lambda v, q: f"{v:g} {q}") for c in result.ranked if c.key == key
+    return [r.render(lambda v, q: str(v) if q == "text" else f"{v:g} {q}")
+            for c in result.ranked if c.key == key
             for r in c.reasons]
 
 

@@ -18,7 +18,7 @@ def _order(result):
 
 
 def _reasons(result, key):
-    show = lambda v, q: f"{v:g} {q}"  # noqa: E731
+    show = lambda v, q: str(v) if q == "text" else f"{v:g} {q}"  # noqa: E731
     return [r.render(show) for c in result.ranked if c.key == key for r in c.reasons]
 
 
