@@ -57,6 +57,7 @@ def _profile(pairs: tuple[tuple[float | None, float | None], ...]) -> list[tuple
 
 
 CHART_W, CHART_H = 400.0, 330.0
+CHART_DECADES = 8
 _CHART_BOX = (58.0, 34.0, 328.0, 236.0)  # left, top, width, height of the plot, viewBox units
 
 
@@ -68,18 +69,24 @@ def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, ar
     t_high = max(ref_temp_c, temp_c) + 20.0
     temps = [t_low + (t_high - t_low) * k / 40 for k in range(41)]
     lives = [model(t, ref_life_h) for model in (doubling, arrhenius) for t in temps]
-    ax = chart.Axes((t_low, t_high), (min(lives) / 1.5, max(lives) * 1.5), _CHART_BOX,
-                    y_scale=math.log10)
-    life_now = doubling(temp_c, ref_life_h)
+    # A steep model can run a life down to nothing (or past a float) at the edges: the log
+    # axis spans at most CHART_DECADES below the longest life, and lines are held inside it.
+    high = max(v for v in lives if math.isfinite(v)) * 1.5
+    low = max(min(v for v in lives if v > 0.0) / 1.5, high * 10.0 ** -CHART_DECADES)
+    ax = chart.Axes((t_low, t_high), (low, high), _CHART_BOX, y_scale=math.log10)
+    inside = lambda v: min(max(v, low), high)  # noqa: E731
+    life_now = inside(doubling(temp_c, ref_life_h))
     px, py = ax.point(temp_c, life_now)
     show = lambda value, quantity: units.show(value, quantity, system)  # noqa: E731
     body = [
         chart.frame(ax, chart.unit_ticks(t_low, t_high, _T, system), chart.ticks_125(*ax.y_range),
                     f"Oil temperature, {units.unit_label(_T, system)}",
                     f"Life, {units.unit_label(_H, system)} (log scale)", chart.short),
-        chart.polyline([ax.point(t, doubling(t, ref_life_h)) for t in temps], "life-doubling",
+        chart.polyline([ax.point(t, inside(doubling(t, ref_life_h))) for t in temps],
+                       "life-doubling",
                        "#12357a", 4.0),
-        chart.polyline([ax.point(t, arrhenius(t, ref_life_h)) for t in temps], "life-arrhenius",
+        chart.polyline([ax.point(t, inside(arrhenius(t, ref_life_h))) for t in temps],
+                       "life-arrhenius",
                        "#8b1a1a", 2.5, "8 5"),
         chart.marker(px, py, "operating-point"),
         chart.text(_CHART_BOX[0] + 6, _CHART_BOX[1] + _CHART_BOX[3] - 8,

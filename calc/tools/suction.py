@@ -16,6 +16,8 @@ default are common practice.
 
 from __future__ import annotations
 
+import math
+
 from ..kernel.constants import ATMOSPHERE_ROUNDED_BAR
 from ..kernel.errors import InputError
 from ..kernel.grading import Band, pick
@@ -25,7 +27,7 @@ from ..methods import fittings as fit
 from ..methods.lines import flow_regime, line_velocity, reynolds_number
 from ..methods.suction import (SCAN_LOW_C, inlet_pressure_bar, starving_temperature,
                                strainer_drop_bar)
-from ..methods.viscosity import check_two_points, walther_fit, walther_viscosity
+from ..methods.viscosity import check_two_points, viscosity_on_line, walther_fit
 
 P_MIN_BAR = 0.8  # typical minimum absolute inlet pressure of industrial pumps: common practice
 MARGIN_WATCH_BAR = 0.1  # a margin smaller than this is a warning: common practice
@@ -196,19 +198,24 @@ def suction_check(flow: float, bore: float, length: float, roughness: float, hea
             fit.Fitting(tees, *fit.TEE_BRANCH)) + (
         (fit.Fitting(1, *VALVES[valve]),) if valve in VALVES else ())
     a, b = walther_fit(40.0, kv40, 100.0, kv100)
-    kv = walther_viscosity(temp, a, b)
+    kv, kv_cold = viscosity_on_line(temp, a, b), viscosity_on_line(temp_cold, a, b)
+    for key, t, kv_t in (("temp", temp, kv), ("temp_cold", temp_cold, kv_cold)):
+        if kv_t is None:
+            raise InputError(key, "at {temp} this oil's viscosity line runs off any scale: check "
+                                  "the two viscosities", temp=Q(t, _T))
     cap = bypass_opens if bypass == "yes" else None
 
     def strainer_at(kv_cst: float, cap_bar: float | None = cap) -> float:
         return strainer_drop_bar(strainer, kv_cst, kv, strainer_model, cap_bar)
 
     def inlet_at(temp_c: float, cap_bar: float | None = cap) -> float:
-        kv_t = walther_viscosity(temp_c, a, b)
+        kv_t = viscosity_on_line(temp_c, a, b)
+        if kv_t is None:
+            return -math.inf  # past any scale: too thick to flow at all
         return inlet_pressure_bar(atmosphere, head, density, flow, bore, length, roughness,
                                   line, kv_t, strainer_at(kv_t, cap_bar))
 
     velocity = line_velocity(flow, bore)
-    kv_cold = walther_viscosity(temp_cold, a, b)
     re, re_cold = reynolds_number(velocity, bore, kv), reynolds_number(velocity, bore, kv_cold)
     p_hot, p_cold = inlet_at(temp), inlet_at(temp_cold)
     t_starve = _starving(inlet_at, p_min, temp, temp_cold, p_hot)
