@@ -25,7 +25,8 @@ const calculator = startCalculator((msg) => {
   statusLine.dataset.state = msg.state;
   if (msg.state === "ready") {
     statusLine.textContent = msg.note ? "Calculator ready (started the slow way: " + msg.note + ")" : "Calculator ready";
-    statusLine.title = `started in ${msg.ms} ms (${msg.mode})` + (msg.note ? ": " + msg.note : "");
+    statusLine.title = `started in ${msg.ms} ms (${msg.mode})` + (msg.checkMs != null ? `, self-check ${msg.checkMs} ms` : "")
+      + (msg.note ? ": " + msg.note : "");
     root.dataset.ready = msg.mode || "normal";
     computeVisible();
   } else {
