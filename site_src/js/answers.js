@@ -1,6 +1,6 @@
 // An answer of the calculator shown in its form: outputs, verdicts, notes, sources and the
-// chart calc drew; or the errors, each beside its field, and the form-wide ones in the
-// form's state line. Text only: nothing here knows a tool.
+// chart calc drew; or the errors, each beside its field, and the form-wide ones (a fault of
+// calc's own among them) in the form's state line. Text only: nothing here knows a tool.
 import { fieldOf } from "./fields.js";
 
 export const LEVEL_WORD = { ok: "OK", watch: "Watch", act: "Act" };
@@ -20,8 +20,8 @@ function clearErrors(form) {
 function showErrors(form, state, errors) {
   const loose = [];
   for (const err of errors) {
-    const slot = form.querySelector(`[data-error-for="${CSS.escape(err.field)}"]`);
-    const input = fieldOf(form, err.field);
+    const slot = err.field == null ? null : form.querySelector(`[data-error-for="${CSS.escape(err.field)}"]`);
+    const input = err.field == null ? null : fieldOf(form, err.field);
     if (slot) { slot.textContent = err.message; slot.hidden = false; } else loose.push(err.message);
     if (input) input.setAttribute("aria-invalid", "true");
   }

@@ -5,6 +5,7 @@ import { keepForm, readInputs, resetForm, restoreForm } from "./fields.js";
 import { currentUnits } from "./units.js";
 import { showAnswer } from "./answers.js";
 import { answered } from "./checklists.js";
+import { keepBugReport } from "./bug-reports.js";
 import { saveToLog } from "./log-view.js";
 
 const DEBOUNCE_MS = 250;
@@ -27,10 +28,11 @@ async function compute(form) {
   receive(form, answer, asked);
 }
 
-// What a form does with the answer to `asked` ({inputs, units}): shows it; remembers a good
-// one for the log and the checklists.
+// What a form does with the answer to `asked` ({inputs, units}): shows it; keeps the report of
+// a fault of calc's own; remembers a good one for the log and the checklists.
 export function receive(form, answer, asked) {
   showAnswer(form, answer);
+  if (answer.bug) keepBugReport({ tool: form.dataset.tool, at: new Date().toISOString(), ...asked, ...answer.bug });
   if (!answer.ok) {
     lastAnswers.delete(form); // nothing to save until the inputs give an answer again
     return;

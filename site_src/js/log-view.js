@@ -2,6 +2,7 @@
 // results, newest first; export, import and print. The entries live in log.js (IndexedDB).
 import { addEntry, allEntries, deleteEntry, importEntries, toCsv } from "./log.js";
 import { LEVEL_WORD } from "./answers.js";
+import { showBugReports } from "./bug-reports.js";
 import { machineName } from "./job.js";
 import { download } from "./store.js";
 import { currentUnits } from "./units.js";
@@ -52,6 +53,7 @@ function trendFigure(trend) {
 
 export async function renderLog() {
   const turn = ++drawing;
+  showBugReports();
   const list = document.querySelector("[data-log-list]");
   const entries = (await allEntries()).sort((a, b) => b.at.localeCompare(a.at));
   if (turn !== drawing) return;
