@@ -12,13 +12,14 @@ context; times are milliseconds from navigation start (the page's performance.no
 - first paint and "shell usable": the later of the first contentful paint and the end of
   DOMContentLoaded (the page's module script has run, so navigation, checklists and
   cautions work; no Python is involved);
-- first computed answer: the app's first viscosity answer shown in the page, the bare
-  page's first Python result; first visit (empty profile), warm reload (service worker
-  and cache in place), offline reload (network off); the same for the bare page, and
-  app / bare for each: the ratio is the figure that carries across machines;
-- input change to answer: a changed temperature submitted (the form computes at once on
-  submit) until the new answer is in the page, over --changes changes; and, for a few, a
-  typed change, which waits for the page's typing pause first;
+- first computed answer: the app's first answer shown in the page (the headline output of
+  the catalogue's first tool, see ``timed_tool``), the bare page's first Python result;
+  first visit (empty profile), warm reload (service worker and cache in place), offline
+  reload (network off); the same for the bare page, and app / bare for each: the ratio is
+  the figure that carries across machines;
+- input change to answer: a changed value of that tool's first number field submitted (the
+  form computes at once on submit) until the new answer is in the page, over --changes
+  changes; and, for a few, a typed change, which waits for the page's typing pause first;
 - bytes on a first visit by file, raw and as sent (the .gz twin when there is one);
 - the boot figures again with Chromium's renderers held to a quarter of the CPU (see
   Throttle: CDP's CPU throttling does not reach workers) as a stand-in for a mid-range phone.
@@ -51,17 +52,17 @@ CHROMIUM = "/usr/bin/chromium"
 CHROMIUM_ARGS = ["--no-sandbox", "--disable-background-networking", "--disable-component-update",
                  "--disable-sync", "--no-first-run", "--disable-gpu", "--disable-quic"]
 PHONE = {"width": 360, "height": 740}
-TOOL = "viscosity-at-temperature"
 TIMEOUT_MS = 300_000
 # Pyodide's own files; with the snapshot they are not "the app's own files".
 PYODIDE_CORE = ("pyodide.mjs", "pyodide.asm.mjs", "pyodide.asm.wasm", "python_stdlib.zip")
 SNAPSHOT_FILES = ("snapshot.bin",)
 
-# Marks when the first answer (app) or first result (bare) reached the page.
+# Marks when the first answer (app) or first result (bare) reached the page; %s is the
+# selector of the timed output (the bare page has none).
 INIT_SCRIPT = """
 window.__answerAt = null;
 document.addEventListener("DOMContentLoaded", () => {
-  const el = document.querySelector('form[data-tool="%s"] [data-out="kv"]') || document.getElementById("bare-out");
+  const el = document.querySelector(%s) || document.getElementById("bare-out");
   if (!el) return;
   const check = () => {
     const text = el.textContent.trim();
@@ -71,7 +72,7 @@ document.addEventListener("DOMContentLoaded", () => {
   new MutationObserver(check).observe(el, { childList: true, characterData: true, subtree: true });
   check();
 });
-""" % TOOL
+"""
 
 READ_TIMES = """() => {
   const nav = performance.getEntriesByType("navigation")[0];
@@ -85,24 +86,25 @@ READ_TIMES = """() => {
              .match(/started in (\\d+) ms/)?.[1]) || null };
 }"""
 
-LATENCY = """async ([n, typed]) => {
-  const form = document.querySelector('form[data-tool="%s"]');
-  const input = form.querySelector('[name="temp"]');
-  const out = form.querySelector('[data-out="kv"]');
+# [n, typed, {tool, out, field, values}]: n changes of the field, each to the next value.
+LATENCY = """async ([n, typed, timed]) => {
+  const form = document.querySelector(`form[data-tool="${timed.tool}"]`);
+  const input = form.querySelector(`[name="${timed.field}"]`);
+  const out = form.querySelector(`[data-out="${timed.out}"]`);
   const times = [];
   for (let i = 0; i < n; i++) {
     const changed = new Promise((resolve) => {
       const mo = new MutationObserver(() => { mo.disconnect(); resolve(performance.now()); });
       mo.observe(out, { childList: true, characterData: true, subtree: true });
     });
-    input.value = String(20 + (i %% 2 ? 35 : 0) + (i %% 37));  // every change differs from the last
+    input.value = timed.values[i % timed.values.length];  // each answers differently from the last
     const t0 = performance.now();
     if (typed) input.dispatchEvent(new Event("input", { bubbles: true }));
     else form.requestSubmit();
     times.push((await changed) - t0);
   }
   return times;
-}""" % TOOL
+}"""
 
 BARE_PAGE = """<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><title>Bare Pyodide</title>
@@ -130,6 +132,36 @@ self.addEventListener("fetch", (event) => {
     .then((hit) => hit || fetch(event.request)));
 });
 """
+
+
+def timed_tool() -> dict:
+    """What the app's figures time, taken from the registry: the catalogue's first tool of
+    kind "tool", its first headline output, its first number field with a default, and
+    values of that field that calc answers (checked here, natively), each answer differing
+    from the one before, so every change shows a new answer."""
+    from calc import bridge
+    from calc.kernel import registry
+
+    tool = next(iter(registry.of_kind("tool").values()))
+    field = next(f for f in tool.inputs if not f.is_choice and f.default is not None)
+    out = tool.headline[0]
+    default, scale = float(field.default), (abs(float(field.default)) or 1.0) / 50
+    values, last = [], None
+    for step in range(-20, 21):
+        value = default + step * scale
+        if (field.min is not None and value < field.min) or (field.max is not None and value > field.max):
+            continue
+        answer = bridge.run(tool.id, {field.key: f"{value:g}"})
+        if answer["ok"] and answer["text"].get(out) != last:
+            values.append(f"{value:g}")
+            last = answer["text"][out]
+    if len(values) < 2:
+        sys.exit(f"bench: {tool.id}.{field.key} gives fewer than two different answers near its default")
+    return {"tool": tool.id, "out": out, "field": field.key, "values": values}
+
+
+def init_script(timed: dict) -> str:
+    return INIT_SCRIPT % json.dumps(f'form[data-tool="{timed["tool"]}"] [data-out="{timed["out"]}"]')
 
 
 def write_bare_page(target: Path, dist: Path) -> None:
@@ -237,14 +269,14 @@ class Throttle:
             self._signal(self._renderers() or pids, signal.SIGCONT)
 
 
-def one_visit_cycle(browser, url: str, rate: float, watch_bytes: bool = False) -> dict:
+def one_visit_cycle(browser, url: str, timed: dict, rate: float, watch_bytes: bool = False) -> dict:
     """First visit, warm reload and offline reload of one page in a fresh context."""
     context = browser.new_context(viewport=PHONE, service_workers="allow")
     requests = []
     if watch_bytes:
         context.on("requestfinished", lambda r: requests.append(r))
     page = context.new_page()
-    page.add_init_script(INIT_SCRIPT)
+    page.add_init_script(init_script(timed))
     figures = {}
     throttle = Throttle(rate)
     try:
@@ -280,16 +312,16 @@ def _body_size(request):
         return None
 
 
-def latency(browser, url: str, changes: int) -> dict:
+def latency(browser, url: str, timed: dict, changes: int) -> dict:
     context = browser.new_context(viewport=PHONE, service_workers="allow")
     page = context.new_page()
-    page.add_init_script(INIT_SCRIPT)
+    page.add_init_script(init_script(timed))
     try:
         page.goto(url)
         page.wait_for_function("() => window.__answerAt !== null", timeout=TIMEOUT_MS, polling=50)
-        page.evaluate(LATENCY, [10, False])  # warm-up, not counted
-        submitted = page.evaluate(LATENCY, [changes, False])
-        typed = page.evaluate(LATENCY, [max(10, changes // 15), True])
+        page.evaluate(LATENCY, [10, False, timed])  # warm-up, not counted
+        submitted = page.evaluate(LATENCY, [changes, False, timed])
+        typed = page.evaluate(LATENCY, [max(10, changes // 15), True, timed])
     finally:
         context.close()
     return {
@@ -406,13 +438,15 @@ def main(argv: list[str] | None = None) -> int:
     if not Path(CHROMIUM).exists():
         sys.exit(f"bench: {CHROMIUM} is missing: `make chromium` installs it as root")
 
+    timed = timed_tool()
     with tempfile.TemporaryDirectory(prefix="sumpside-bench-") as tmp:
         site = Path(tmp)
         shutil.copytree(dist, site / "app")  # a copy: a build running meanwhile cannot disturb it
         write_bare_page(site / "bare", site / "app")
         server, base = serve.start_in_thread(site)
-        app_url, bare_url = f"{base}app/#/tool/{TOOL}", f"{base}bare/"
+        app_url, bare_url = f"{base}app/#/tool/{timed['tool']}", f"{base}bare/"
         result = {"when": time.strftime("%Y-%m-%dT%H:%M:%S%z"), "repeat": args.repeat,
+                  "timed": {k: timed[k] for k in ("tool", "out", "field")},
                   "machine": {"platform": platform.platform(), "cpus": __import__("os").cpu_count()},
                   "build": json.loads((dist / "build.json").read_text()), "boot": {}}
         try:
@@ -426,15 +460,15 @@ def main(argv: list[str] | None = None) -> int:
                     for i in range(args.repeat):
                         # Interleaved, so a load change on the machine hits both alike.
                         first = key == "normal" and i == 0
-                        app_runs.append(one_visit_cycle(browser, app_url, rate, watch_bytes=first))
+                        app_runs.append(one_visit_cycle(browser, app_url, timed, rate, watch_bytes=first))
                         if first:
                             byte_requests = app_runs[-1].pop("requests")
-                        bare_runs.append(one_visit_cycle(browser, bare_url, rate))
+                        bare_runs.append(one_visit_cycle(browser, bare_url, timed, rate))
                         print(f"bench: {key} run {i + 1}/{args.repeat}: app {app_runs[-1]['warm_reload']['answer']:.0f} ms "
                               f"warm, bare {bare_runs[-1]['warm_reload']['answer']:.0f} ms warm", file=sys.stderr)
                     app, bare = summarize(app_runs), summarize(bare_runs)
                     result["boot"][key] = {"rate": rate, "app": app, "bare": bare, "ratio": ratios(app, bare)}
-                result["latency"] = latency(browser, app_url, args.changes)
+                result["latency"] = latency(browser, app_url, timed, args.changes)
                 browser.close()
         finally:
             server.shutdown()

@@ -1,20 +1,22 @@
 // Make the worker's memory snapshot at build time, in Node.js, with the build's own Pyodide.
 //
-//   node sitebuild/make_snapshot.mjs <dist/pyodide dir> <out.bin> <wheel sha256> <probe request JSON>
+//   node sitebuild/make_snapshot.mjs <dist/pyodide dir> <out.bin> <wheel sha256>
 //
 // Boots the pinned Pyodide with _makeSnapshot, loads the calc wheel from the build's lock
-// file, imports every tool module, runs every tool once on its defaults (and once in US
-// units) so every lazy path is warm, stamps the wheel's sha256 into the interpreter (the
-// worker reads it back after a restore to tell a snapshot of another build), and writes
-// pyodide.makeMemorySnapshot() to <out.bin>. Prints one JSON line with what it did.
+// file, imports every module of calc, runs calc.bridge.self_check() (every tool on its
+// defaults in both unit systems) so every lazy path is warm, warms the unit switch and the
+// log's trend charts, stamps the wheel's sha256 into the interpreter (the worker reads it
+// back after a restore to tell a snapshot of another build), and writes
+// pyodide.makeMemorySnapshot() to <out.bin>. Prints one JSON line with what it did, the
+// self-check among it: the worker runs the self-check again after a restore and compares.
 // _makeSnapshot and makeMemorySnapshot are underscore/private options of Pyodide 314.0.x.
 import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 
-const [pyodideDir, outFile, wheelSha, probe] = process.argv.slice(2);
-if (!pyodideDir || !outFile || !/^[0-9a-f]{64}$/.test(wheelSha || "") || !probe) {
-  console.error("usage: make_snapshot.mjs <dist/pyodide> <out.bin> <wheel sha256> <probe JSON>");
+const [pyodideDir, outFile, wheelSha] = process.argv.slice(2);
+if (!pyodideDir || !outFile || !/^[0-9a-f]{64}$/.test(wheelSha || "")) {
+  console.error("usage: make_snapshot.mjs <dist/pyodide> <out.bin> <wheel sha256>");
   process.exit(2);
 }
 const indexDir = path.resolve(pyodideDir) + path.sep;
@@ -50,31 +52,32 @@ for info in pkgutil.walk_packages(calc.__path__, "calc."):
     if info.name != "calc.__main__":
         importlib.import_module(info.name)
 _tools = calc.kernel.registry.tools()
-_failed = []
+# The answers of a fresh interpreter: the worker runs the same self-check after a restore.
+_check = calc.bridge.self_check()
 for _id in _tools:
-    for _units in ("metric", "us"):
-        _answer = json.loads(calc.bridge.run_json(json.dumps({"tool": _id, "inputs": {}, "units": _units})))
-        if not _answer.get("ok"):
-            _failed.append(_id + "/" + _units)
     calc.bridge.reexpress_json(json.dumps({"tool": _id, "inputs": {}, "from": "metric", "to": "us"}))
 calc.bridge.catalogue()
-# The answer a fresh interpreter gives the worker's probe: the worker asks it again after a restore.
-_probe_answer = calc.bridge.run_json(${JSON.stringify(probe)})
+# Two readings of every followed output warm the log's trend charts.
+_entries = [{"at": _at, "machine": "", "tool": _id, "units": "metric",
+             "values": {_o.key: 1.0 for _o in _tool.outputs if _o.tracks}}
+            for _id, _tool in _tools.items() if any(_o.tracks for _o in _tool.outputs)
+            for _at in ("2026-01-01T08:00:00Z", "2026-02-01T08:00:00Z")]
+calc.bridge.trends_json(json.dumps({"entries": _entries, "units": "us"}))
 import random
 sys.modules["calc"]._snapshot_wheel_sha256 = ${JSON.stringify(wheelSha)}
-_report = json.dumps({"tools": len(_tools), "failed": _failed, "probe_answer": _probe_answer,
+_report = json.dumps({"tools": len(_tools), "self_check": json.loads(_check),
                       "modules": sorted(m for m in sys.modules if m == "calc" or m.startswith("calc."))})
-del _tools, _failed, _id, _units, _answer, _wheel, _probe_answer
+del _tools, _check, _id, _wheel, _entries
 gc.collect()
 _report
 `);
 const parsed = JSON.parse(report);
-if (parsed.failed.length) {
-  console.error("snapshot: tools failed on their defaults: " + parsed.failed.join(", "));
+if (!parsed.self_check.ok) {
+  console.error("snapshot: tools failed on their defaults: " + parsed.self_check.failed.join(", "));
   process.exit(1);
 }
 pyodide.runPython("del _report; import gc; gc.collect()");
 const snapshot = pyodide.makeMemorySnapshot();
 writeFileSync(outFile, snapshot);
-console.log(JSON.stringify({ bytes: snapshot.length, tools: parsed.tools, probe_answer: parsed.probe_answer,
+console.log(JSON.stringify({ bytes: snapshot.length, tools: parsed.tools, self_check: parsed.self_check,
   modules: parsed.modules.length, ms: Math.round(performance.now() - started) }));

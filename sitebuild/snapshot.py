@@ -12,8 +12,10 @@ the pinned Pyodide and writes, beside it in dist/pyodide/:
 - ``snapshot.json``: what ties it to this build: the calc wheel's sha256 (the same hash
   the lock file gives the wheel; the snapshot also carries it inside the interpreter as
   ``calc._snapshot_wheel_sha256``), the Pyodide version, the byte count and sha256 of
-  ``snapshot.bin`` as stored and the size of the full snapshot, and one probe request with the answer the freshly booted interpreter
-  gave, which the worker asks again after a restore.
+  ``snapshot.bin`` as stored and the size of the full snapshot, and the freshly booted
+  interpreter's ``calc.bridge.self_check()`` (every tool on its defaults in both unit
+  systems, and the digest of all those answers), which the worker runs again after a
+  restore and compares.
 
 Pyodide 314.0.x restores into its default 30 MiB heap without growing it, so a snapshot
 whose heap outgrew that cannot be restored ("offset is out of bounds"): such a snapshot is
@@ -39,7 +41,8 @@ SCRIPT = HERE / "make_snapshot.mjs"
 DEFAULT_HEAP_BYTES = 30 * 1024 * 1024
 SNAPSHOT = "snapshot.bin"
 META = "snapshot.json"
-PROBE = {"tool": "viscosity-at-temperature", "inputs": {}, "units": "metric"}
+# snapshot.json's layout; the worker refuses any other (site_src/js/snapshot-check.js).
+FORMAT = 3
 # Files the browser fetches that compress well; their .gz twins are served by sitebuild.serve.
 GZIP_SUFFIXES = (".bin", ".wasm", ".mjs", ".js", ".css", ".html", ".json", ".webmanifest", ".svg")
 
@@ -110,7 +113,7 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
     version = _pyodide_version(pyodide_dir)
     with tempfile.TemporaryDirectory() as tmp:
         raw = Path(tmp) / "snapshot.raw"
-        run = subprocess.run([node, str(SCRIPT), str(pyodide_dir), str(raw), wheel_sha, json.dumps(PROBE)],
+        run = subprocess.run([node, str(SCRIPT), str(pyodide_dir), str(raw), wheel_sha],
                              capture_output=True, text=True)
         if run.returncode != 0:
             tail = "\n".join((run.stderr or run.stdout).strip().splitlines()[-15:])
@@ -125,7 +128,7 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
     stored = sparse(data)
     (pyodide_dir / SNAPSHOT).write_bytes(stored)
     meta = {
-        "format": 2,
+        "format": FORMAT,
         "file": SNAPSHOT,
         "encoding": "SPZ1 zero runs left out",
         "wheel_sha256": wheel_sha,
@@ -135,8 +138,7 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
         "stored_bytes": len(stored),
         "sha256": hashlib.sha256(stored).hexdigest(),
         "tools": made["tools"],
-        "probe": PROBE,
-        "probe_answer": made["probe_answer"],
+        "self_check": made["self_check"],
     }
     (pyodide_dir / META).write_text(json.dumps(meta, indent=2, ensure_ascii=False), encoding="utf-8")
     return meta

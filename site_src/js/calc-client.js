@@ -38,5 +38,7 @@ export function startCalculator(onStatus) {
     ready,
     run: (tool, inputs, units) => ask("run", { tool, inputs, units }),
     reexpress: (tool, inputs, from, to) => ask("reexpress", { tool, inputs, from, to }),
+    // Log entries ({at, machine, tool, values, units}) -> [{machine, tracks, title, points, svg}].
+    trends: (entries, units) => ask("trends", { entries, units }),
   };
 }

@@ -13,6 +13,7 @@ from calc.kernel import registry
 from .conftest import BOOT_TIMEOUT_MS, open_app
 
 CHECKLISTS = list(registry.of_kind("checklist"))
+LEVEL_WORD = {"ok": "OK", "watch": "Watch", "act": "Act"}  # as the page shows a level
 
 
 def _first_flag(tool_id):
@@ -77,4 +78,7 @@ def test_tool_result_flows_back_into_the_checklist(page, base_url):
                            timeout=BOOT_TIMEOUT_MS)
     page.click("[data-back] a")
     reading = page.locator(f'#view-tool-{name} [data-reading-of="{tool}"]').first
-    assert reading.inner_text().startswith("Latest:")
+    # The tool's headline outputs, as the tool declares them, and the level of its answer.
+    answer = bridge.run(tool, {})
+    headline = ", ".join(answer["text"][key] for key in answer["headline"])
+    assert reading.inner_text() == f"Latest: {headline} ({LEVEL_WORD[answer['level']]})"

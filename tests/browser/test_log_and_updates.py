@@ -4,16 +4,19 @@ from __future__ import annotations
 
 import json
 import re
+from xml.etree import ElementTree
+
+from calc import bridge
 
 from .conftest import BOOT_TIMEOUT_MS, copy_dist, open_app, wait_answer
 
 
-def _save_one(page):
-    wait_answer(page, "viscosity-at-temperature", "kv")
+def _save_one(page, tool="viscosity-at-temperature", key="kv"):
+    wait_answer(page, tool, key)
     page.fill("#job-machine", "Press 7, north bay")
-    page.click('form[data-tool="viscosity-at-temperature"] [data-action="save"]')
-    page.wait_for_function("""() => document.querySelector(
-        'form[data-tool="viscosity-at-temperature"] [data-state]').textContent.includes('Saved')""")
+    page.click(f'form[data-tool="{tool}"] [data-action="save"]')
+    page.wait_for_function("""t => document.querySelector(
+        `form[data-tool="${t}"] [data-state]`).textContent.includes('Saved')""", arg=tool)
 
 
 def test_log_survives_reload_and_exports(page, base_url, watch):
@@ -49,17 +52,34 @@ def test_typed_values_survive_a_reload(page, base_url, watch):
     assert not watch.errors
 
 
+def _svg_text(svg: str) -> str:
+    return "".join(ElementTree.fromstring(svg).itertext())
+
+
 def test_two_saved_readings_draw_a_trend(page, base_url, watch):
-    open_app(page, base_url, "#/tool/viscosity-at-temperature")
-    _save_one(page)
-    page.locator('form[data-tool="viscosity-at-temperature"] [name="temp"]').fill("70")
-    page.wait_for_function("""() => document.querySelector(
-        'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent !== '30.0 cSt'""")
-    _save_one(page)
+    # viscosity-grade's kv40 is a followed quantity: two saved readings make calc draw a trend.
+    tool = "viscosity-grade"
+    open_app(page, base_url, f"#/tool/{tool}")
+    _save_one(page, tool, "kv40")
+    first = wait_answer(page, tool, "kv40")
+    page.locator(f'form[data-tool="{tool}"] [name="kv"]').fill("52")
+    page.wait_for_function("""([t, old]) => document.querySelector(
+        `form[data-tool="${t}"] [data-out="kv40"]`).textContent !== old""", arg=[tool, first])
+    _save_one(page, tool, "kv40")
     open_app(page, base_url, "#/log")
-    trend = page.locator("[data-log-list] figure.trend-figure svg polyline")
-    trend.wait_for()
-    assert len(trend.get_attribute("points").split()) == 2
+    figure = page.locator("[data-log-list] figure.trend-figure")
+    figure.locator("svg").wait_for()
+    saved = page.evaluate("""async () => (await import(new URL("js/log.js", document.baseURI).href)).allEntries()""")
+    expected = bridge.trends(saved, "metric")
+    assert [t["points"] for t in expected] == [2]
+    assert figure.count() == 1
+    assert figure.locator("figcaption").inner_text() == expected[0]["title"]
+    assert "Press 7, north bay" in expected[0]["title"]
+    svg = figure.locator("svg")
+    assert "chart-trend" in svg.get_attribute("class")
+    assert svg.locator(".trend-point").count() == 2
+    # Every word and number of the chart as calc drew it (ticks, dates, title, description).
+    assert svg.evaluate("el => el.textContent") == _svg_text(expected[0]["svg"])
     assert not watch.errors
 
 

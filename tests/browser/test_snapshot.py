@@ -10,6 +10,7 @@ import json
 import pytest
 
 from calc import bridge
+from calc.kernel import registry
 from sitebuild import snapshot
 
 from .conftest import copy_dist, open_app, wait_answer
@@ -48,7 +49,10 @@ def test_the_built_snapshot_belongs_to_this_build(dist):
     assert snapshot.heap_bytes(full) == meta["heap_bytes"]
     # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
     assert meta["heap_bytes"] <= 30 * 1024 * 1024
-    assert json.loads(meta["probe_answer"]) == bridge.run(meta["probe"]["tool"], meta["probe"]["inputs"])
+    # The snapshot maker's self-check: every tool answered on its defaults, in both unit
+    # systems, exactly as calc answers here (the worker compares a restored interpreter's).
+    assert meta["self_check"] == json.loads(bridge.self_check())
+    assert meta["self_check"]["ok"] and meta["self_check"]["tools"] == len(registry.tools())
     sw = (dist / "sw.js").read_text()
     assert '"pyodide/snapshot.bin"' in sw and '"pyodide/snapshot.json"' in sw
     assert ".gz" not in sw  # twins are a wire encoding, never cached twice
@@ -58,7 +62,7 @@ def test_boots_from_the_snapshot_by_default(page, base_url, watch):
     open_app(page, base_url, f"#/tool/{TOOL}")
     mode, text, title = _status(page)
     assert mode == "snapshot", (text, title)
-    assert "(snapshot)" in title
+    assert "(snapshot), self-check" in title  # the restored interpreter passed calc's self-check
     _answers_like_the_cli(page)
     assert not watch.errors
 
@@ -80,9 +84,9 @@ def _break(folder, how: str) -> None:
         snap.write_bytes(snap.read_bytes()[: meta["stored_bytes"] // 2])
     elif how == "other-build":
         meta["wheel_sha256"] = "0" * 64
-    elif how == "other-answer":
-        # What a snapshot of other calc code would show: the same probe, another answer.
-        meta["probe_answer"] = meta["probe_answer"].replace('"ok": true', '"ok": true, "x": 1', 1)
+    elif how == "other-answers":
+        # What a snapshot of other calc code would show: every tool passes, with other answers.
+        meta["self_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
     elif how == "too-big":
         # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
         full = snapshot.unsparse(snap.read_bytes()) + bytes(1024 * 1024)
@@ -102,7 +106,7 @@ def _break(folder, how: str) -> None:
     ("corrupt", "corrupt"),
     ("truncated", "bytes, not"),
     ("other-build", "another build"),
-    ("other-answer", "answered the probe differently"),
+    ("other-answers", "answered its self-check differently"),
     ("too-big", "outgrows"),
 ])
 def test_falls_back_to_a_normal_boot_and_says_why(page, dist, serve_dir, tmp_path, watch, how, says):

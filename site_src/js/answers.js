@@ -1,0 +1,55 @@
+// An answer of the calculator shown in its form: outputs, verdicts, notes, sources and the
+// chart calc drew; or the errors, each beside its field, and the form-wide ones (a fault of
+// calc's own among them) in the form's state line. Text only: nothing here knows a tool.
+import { fieldOf } from "./fields.js";
+
+export const LEVEL_WORD = { ok: "OK", watch: "Watch", act: "Act" };
+
+export function fillList(list, items, fill) {
+  list.replaceChildren(...items.map((item) => { const li = document.createElement("li"); fill(li, item); return li; }));
+}
+
+// The headline outputs as shown ("20.6 cSt, 1.2 %"): the few the tool declares for a glance.
+export const headlineText = (answer) => (answer.headline || []).map((key) => answer.text[key]).join(", ");
+
+function clearErrors(form) {
+  for (const p of form.querySelectorAll("[data-error-for]")) { p.hidden = true; p.textContent = ""; }
+  for (const el of form.querySelectorAll("[aria-invalid]")) el.removeAttribute("aria-invalid");
+}
+
+function showErrors(form, state, errors) {
+  const loose = [];
+  for (const err of errors) {
+    const slot = err.field == null ? null : form.querySelector(`[data-error-for="${CSS.escape(err.field)}"]`);
+    const input = err.field == null ? null : fieldOf(form, err.field);
+    if (slot) { slot.textContent = err.message; slot.hidden = false; } else loose.push(err.message);
+    if (input) input.setAttribute("aria-invalid", "true");
+  }
+  state.textContent = loose.length ? loose.join(" ") : "Check the marked field" + (errors.length > 1 ? "s." : ".");
+  state.dataset.kind = "error";
+}
+
+function verdictItem(li, v) {
+  li.className = "verdict level-" + v.level;
+  const badge = Object.assign(document.createElement("span"), { className: "badge", textContent: LEVEL_WORD[v.level] });
+  const basis = Object.assign(document.createElement("span"), { className: "basis", textContent: " (" + v.basis + ")" });
+  li.append(badge, " " + v.message, basis);
+}
+
+export function showAnswer(form, answer) {
+  const state = form.querySelector("[data-state]");
+  clearErrors(form);
+  form.dataset.level = answer.ok ? answer.level : "error";
+  if (!answer.ok) {
+    showErrors(form, state, answer.errors || []);
+    return;
+  }
+  delete state.dataset.kind;
+  state.textContent = "";
+  for (const dd of form.querySelectorAll("[data-out]")) dd.textContent = answer.text[dd.dataset.out] ?? "–";
+  fillList(form.querySelector("[data-verdicts]"), answer.verdicts, verdictItem);
+  fillList(form.querySelector("[data-notes]"), answer.notes, (li, n) => { li.textContent = n; });
+  form.querySelector("[data-sources]").textContent = answer.sources.length ? "Sources: " + answer.sources.join("; ") : "";
+  // Drawn by calc: presentation attributes only, no script.
+  form.querySelector("[data-chart]").innerHTML = Object.values(answer.charts || {}).join("");
+}

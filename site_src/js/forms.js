@@ -1,0 +1,66 @@
+// The tool forms: each computes through the worker a short pause after typing, at once on
+// submit, and when its view is shown; only the newest answer of a form is shown. Reset, save
+// and print are the form's own buttons.
+import { keepForm, readInputs, resetForm, restoreForm } from "./fields.js";
+import { currentUnits } from "./units.js";
+import { showAnswer } from "./answers.js";
+import { answered } from "./checklists.js";
+import { keepBugReport } from "./bug-reports.js";
+import { saveToLog } from "./log-view.js";
+
+const DEBOUNCE_MS = 250;
+const root = document.documentElement;
+const lastAnswers = new WeakMap(); // form -> { answer, inputs, units } of its last good answer
+let calculator = null;
+
+export function computeVisible() {
+  if (!calculator || !root.dataset.ready) return;
+  for (const form of document.querySelectorAll(".view:not([hidden]) form[data-tool]")) compute(form);
+}
+
+async function compute(form) {
+  const seq = (Number(form.dataset.seq) || 0) + 1;
+  form.dataset.seq = String(seq);
+  if (!root.dataset.ready) form.querySelector("[data-state]").textContent = "The calculator is starting; your answer follows.";
+  const asked = { inputs: readInputs(form), units: currentUnits() };
+  const answer = await calculator.run(form.dataset.tool, asked.inputs, asked.units);
+  if (form.dataset.seq !== String(seq)) return; // a newer request is on its way
+  receive(form, answer, asked);
+}
+
+// What a form does with the answer to `asked` ({inputs, units}): shows it; keeps the report of
+// a fault of calc's own; remembers a good one for the log and the checklists.
+export function receive(form, answer, asked) {
+  showAnswer(form, answer);
+  if (answer.bug) keepBugReport({ tool: form.dataset.tool, at: new Date().toISOString(), ...asked, ...answer.bug });
+  if (!answer.ok) {
+    lastAnswers.delete(form); // nothing to save until the inputs give an answer again
+    return;
+  }
+  lastAnswers.set(form, { answer, ...asked });
+  answered(form, answer);
+}
+
+function bindForm(form) {
+  let timer = null;
+  const soon = () => { clearTimeout(timer); keepForm(form, currentUnits()); timer = setTimeout(() => compute(form), DEBOUNCE_MS); };
+  form.addEventListener("input", soon);
+  form.addEventListener("change", soon);
+  form.addEventListener("submit", (event) => { event.preventDefault(); clearTimeout(timer); compute(form); });
+  form.querySelector('[data-action="reset"]')?.addEventListener("click", () => {
+    clearTimeout(timer);
+    resetForm(form, currentUnits());
+    compute(form);
+  });
+  form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveToLog(form, lastAnswers.get(form)));
+  form.querySelector('[data-action="print"]')?.addEventListener("click", () => window.print());
+}
+
+// Call once the unit system's defaults are in the fields (units.js): what was typed comes back.
+export function startForms(calc) {
+  calculator = calc;
+  for (const form of document.querySelectorAll("form[data-tool]")) {
+    restoreForm(form, currentUnits());
+    bindForm(form);
+  }
+}

@@ -1,0 +1,100 @@
+// The worker's quick start, checked: is the memory snapshot build.py made (sitebuild/snapshot.py)
+// this build's, whole and restorable, and does the restored interpreter answer as the one that
+// made it? snapshot.json names the calc wheel's sha256, which must be the lock file's; the bytes
+// must match the size and sha256 it gives; the restored interpreter must carry the same wheel
+// hash, and calc.bridge.self_check() must give the digest the snapshot maker recorded. Anything
+// else (missing, corrupt, another build, too big for the 30 MiB heap Pyodide 314.0.x restores
+// into) rejects with the reason, and the worker boots the normal way.
+const FORMAT = 3; // sitebuild/snapshot.py's FORMAT
+const DEFAULT_HEAP_BYTES = 30 * 1024 * 1024;
+const SNAPSHOT_FILE = "snapshot.bin";
+const SPARSE_MAGIC = 0x315a5053; // "SPZ1" little-endian
+
+function hex(buffer) {
+  return Array.from(new Uint8Array(buffer), (b) => b.toString(16).padStart(2, "0")).join("");
+}
+
+// The stored form leaves out the heap's long runs of zero bytes (sitebuild/snapshot.py):
+// "SPZ1", the full size, the number of chunks, then per chunk its offset, length and bytes.
+function expand(stored) {
+  const view = new DataView(stored.buffer, stored.byteOffset, stored.byteLength);
+  if (stored.length < 12 || view.getUint32(0, true) !== SPARSE_MAGIC) throw new Error("snapshot is corrupt (not a stored snapshot)");
+  const size = view.getUint32(4, true);
+  const count = view.getUint32(8, true);
+  const out = new Uint8Array(size);
+  let at = 12;
+  for (let i = 0; i < count; i++) {
+    if (at + 8 > stored.length) throw new Error("snapshot is corrupt (chunk table)");
+    const offset = view.getUint32(at, true);
+    const length = view.getUint32(at + 4, true);
+    at += 8;
+    if (offset + length > size || at + length > stored.length) throw new Error("snapshot is corrupt (chunk bounds)");
+    out.set(stored.subarray(at, at + length), offset);
+    at += length;
+  }
+  if (at !== stored.length) throw new Error("snapshot is corrupt (trailing bytes)");
+  return out;
+}
+
+// Asks for snapshot.json and snapshot.bin at once (call it as the worker starts, so reading
+// the snapshot from the cache overlaps with Pyodide loading its own script). `lockRequest` is
+// the promise of the build's pyodide-lock.json.
+export function requestSnapshot(pyodideURL, lockRequest) {
+  const metaRequest = fetch(new URL("snapshot.json", pyodideURL)).then((response) => {
+    if (!response.ok) throw new Error(`snapshot.json: HTTP ${response.status}`);
+    return response.json();
+  }).catch((err) => {
+    throw new Error("no snapshot in this build (" + err.message + ")");
+  });
+  let storedRequest = fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
+    if (!response.ok) throw new Error(`${SNAPSHOT_FILE}: HTTP ${response.status}`);
+    return new Uint8Array(await response.arrayBuffer());
+  });
+  // Awaited only later: marked handled so an early rejection is not reported as unhandled
+  // (it still fails the restore, which falls back).
+  metaRequest.catch(() => {});
+  storedRequest.catch(() => {});
+
+  // This build's stored bytes, else a rejection saying why.
+  let stored = (async () => {
+    const [lock, meta] = await Promise.all([lockRequest, metaRequest]);
+    if (meta.format !== FORMAT) throw new Error("snapshot format " + meta.format + " is not known here");
+    if (meta.wheel_sha256 !== lock.packages.sumpside.sha256) throw new Error("snapshot is from another build");
+    const data = await storedRequest;
+    if (data.length !== meta.stored_bytes) throw new Error(`snapshot is ${data.length} bytes, not ${meta.stored_bytes}`);
+    return data;
+  })();
+  // The digest runs beside the restore; verify() checks it before the interpreter is used.
+  const digest = stored.then((data) => crypto.subtle.digest("SHA-256", data)).then(hex);
+  let bytes = stored.then(async (data) => {
+    const meta = await metaRequest;
+    const full = expand(data);
+    if (full.length !== meta.bytes) throw new Error(`snapshot expands to ${full.length} bytes, not ${meta.bytes}`);
+    const heap = full.length - new DataView(full.buffer).getUint32(4, true);
+    if (heap > DEFAULT_HEAP_BYTES) throw new Error(`snapshot heap of ${heap} bytes outgrows the restore's ${DEFAULT_HEAP_BYTES}`);
+    return full;
+  });
+  digest.catch(() => {});
+  bytes.catch(() => {});
+
+  return {
+    // The full snapshot, for loadPyodide's _loadSnapshot; a rejection fails the restore.
+    bytes: () => bytes,
+    // Throws unless the restored interpreter is this build's and answers as its maker did;
+    // returns how long the self-check took.
+    async verify(pyodide) {
+      const [lock, meta] = await Promise.all([lockRequest, metaRequest]);
+      if (await digest !== meta.sha256) throw new Error("snapshot is corrupt (sha256 differs)");
+      const stamped = pyodide.runPython("getattr(__import__('calc'), '_snapshot_wheel_sha256', '')");
+      if (stamped !== lock.packages.sumpside.sha256) throw new Error("restored interpreter is from another build");
+      const started = performance.now();
+      const check = JSON.parse(pyodide.pyimport("calc.bridge").self_check());
+      if (!check.ok) throw new Error("restored calculator failed its self-check (" + check.failed.join(", ") + ")");
+      if (check.digest !== meta.self_check.digest) throw new Error("restored calculator answered its self-check differently");
+      return Math.round(performance.now() - started); // ms of the self-check, for the status line
+    },
+    // Lets the snapshot's bytes go (15 MB stored, 30 MB expanded) once the restore has used
+    // or refused them.
+    release() { storedRequest = stored = bytes = null; },
+  };
+}
