@@ -130,9 +130,10 @@ def _code(code_4, code_6, code_14):
     causes=CAUSES,
     symptoms=SYMPTOMS,
     readings=(
-        Field("component", "Most dirt-sensitive component", "choice", "piston",
+        Field("component", "Most dirt-sensitive component", "choice", "piston", binds="component",
               choices=COMPONENT_CHOICES, group="machine"),
         Field("pressure", "Working pressure", "pressure", None, min=0.0, max=1000.0,
+              binds="working_pressure",
               optional=True, group="machine",
               help="Above 140 bar the target is stricter; blank: up to 140 bar."),
         _code_field("code_4", "ISO 4406 code: first number (≥ 4 µm)"),

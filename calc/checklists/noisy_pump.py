@@ -124,10 +124,11 @@ INLET_BANDS = (
     causes=CAUSES,
     symptoms=SYMPTOMS,
     readings=(
-        Field("inlet_pressure", "Pump inlet pressure, absolute", "pressure", None, min=0.0,
+        Field("inlet_pressure", "Pump inlet pressure, absolute", "absolute_pressure", None, min=0.0,
               max=10.0, optional=True, help="From a vacuum gauge at the inlet, or the "
                                             "suction-check tool."),
-        Field("pump_min_inlet", "Pump's minimum inlet pressure, absolute", "pressure", None,
+        Field("pump_min_inlet", "Pump's minimum inlet pressure, absolute", "absolute_pressure", None,
+              binds="pump_min_inlet",
               min=0.1, max=5.0, optional=True, group="machine",
               help="From the pump's data sheet; blank uses 0.8 bar (common practice)."),
         Field("suction_velocity", "Oil speed in the suction line", "velocity", None, min=0.0,

@@ -158,15 +158,18 @@ def _score_temperatures(board: Scoreboard, temp, cooler_in, cooler_out, ambient)
     summary="Tick what you see and enter the temperatures you have; the causes of hot oil are "
             "ranked, each with its checks and cautions.",
     causes=CAUSES,
+    renamed={"ambient": "air_temp"},
     symptoms=SYMPTOMS,
     readings=(
         Field("temp", "Oil temperature in the tank", _T, None, min=-40.0, max=200.0,
+              tracks="oil_temp",
               optional=True),
         Field("cooler_in", "Oil temperature into the cooler", _T, None, min=-40.0, max=200.0,
               optional=True),
         Field("cooler_out", "Oil temperature out of the cooler", _T, None, min=-40.0, max=200.0,
               optional=True),
-        Field("ambient", "Air temperature around the machine", _T, None, min=-40.0, max=80.0,
+        Field("air_temp", "Air temperature around the machine now", _T, None, min=-40.0,
+              max=80.0,
               optional=True),
     ),
     caution="Hot oil and surfaces burn: measure with a contact or infrared thermometer, not "
@@ -176,14 +179,14 @@ def _score_temperatures(board: Scoreboard, temp, cooler_in, cooler_out, ambient)
              "practice, from memory",),
 )
 def checklist_overheating(board: Scoreboard, found: Result, temp, cooler_in, cooler_out,
-                          ambient):
+                          air_temp):
     """Rank the causes of hot oil from the ticked SYMPTOMS and temperatures."""
     both_or_neither("enter the oil temperature both into and out of the cooler, or neither",
                     cooler_in=cooler_in, cooler_out=cooler_out)
     if cooler_in is not None and cooler_out > cooler_in + 1.0:
         raise InputError("cooler_out", "oil leaving a cooler cannot be warmer than oil going in: "
                                        "check which reading is which")
-    _score_temperatures(board, temp, cooler_in, cooler_out, ambient)
+    _score_temperatures(board, temp, cooler_in, cooler_out, air_temp)
     if temp is not None:
         found.grade(temp, TEMPERATURE_BANDS, READING_BASIS, temp=Q(temp, _T),
                     watch=Q(WATCH_C, _T), act=Q(ACT_C, _T))

@@ -214,7 +214,8 @@ def count_entered(*values) -> int:
 
 def checklist(tool_id: str, *, title: str, summary: str, causes: tuple[Cause, ...],
               symptoms: tuple[Symptom, ...], readings: tuple[Field, ...], caution: str,
-              sources: tuple[str, ...], outputs: tuple[Output, ...] = ()):
+              sources: tuple[str, ...], outputs: tuple[Output, ...] = (),
+              renamed: dict[str, str] | None = None):
     """Declare the decorated rules function as the checklist `tool_id`.
 
     The rules are called as ``rules(board, found, **readings)`` after the ticked symptoms
@@ -257,7 +258,7 @@ def checklist(tool_id: str, *, title: str, summary: str, causes: tuple[Cause, ..
         fields = symptom_fields(symptoms) + tuple(readings)
         register(Tool(tool_id, title, summary, TROUBLESHOOTING, fields,
                       RANKING_OUTPUTS + tuple(outputs), compute, kind="checklist",
-                      causes=tuple(causes)))
+                      causes=tuple(causes), renamed=tuple((renamed or {}).items())))
 
         def run(**given) -> Result:
             unknown = set(given) - {f.key for f in fields}

@@ -143,10 +143,12 @@ def _score_air(board: Scoreboard, air_content, pressure):
     symptoms=SYMPTOMS,
     readings=(
         Field("temp", "Oil temperature", "temperature", None, min=-40.0, max=150.0,
+              tracks="oil_temp",
               optional=True),
         Field("air_content", "Entrained air, by volume at atmospheric pressure", "percent", None,
               min=0.0, max=50.0, optional=True, help="From a sample or the air-stiffness tool."),
         Field("pressure", "Working pressure (gauge)", "pressure", None, min=0.0, max=1000.0,
+              binds="working_pressure",
               optional=True, group="machine",
               help="With the air content, gives the loss of stiffness."),
     ),

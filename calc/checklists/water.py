@@ -126,7 +126,6 @@ SATURATION_BANDS = (
     Band("ok", "Water at {rh} of saturation: it stays dissolved at this temperature."),
 )
 
-OIL_CHOICES = tuple(c for c in water.OIL_CHOICES if c[0] != water.OWN_CALIBRATION)
 INGRESS = ("condensation", "seal-ingress", "cooler-leak", "wet-topup")
 
 
@@ -139,13 +138,16 @@ INGRESS = ("condensation", "seal-ingress", "cooler-leak", "wet-topup")
     symptoms=SYMPTOMS,
     readings=(
         Field("ppm", "Water content (lab, Karl Fischer)", "ppm", None, min=0.0, max=1.0e6,
-              optional=True),
+              optional=True, tracks="water_ppm"),
         Field("rh", "Water sensor reading (% saturation)", "percent", None, min=0.0, max=100.0,
-              optional=True, help="What an inline water sensor shows."),
+              optional=True, tracks="water_saturation", help="What an inline water sensor shows."),
         Field("temp", "Oil temperature in service", "temperature", None, min=-40.0, max=150.0,
+              tracks="oil_temp",
               optional=True),
-        Field("oil", "Oil type", "choice", "mineral-aw", choices=OIL_CHOICES, group="machine",
-              help="Sets how much water the oil holds dissolved (the water-in-oil tool's presets)."),
+        Field("oil", "Oil type", "choice", "mineral-aw", choices=water.OIL_CHOICES,
+              binds="oil_family", help="Sets how much water the oil holds dissolved (the "
+                                       "water-in-oil tool's presets, or an own calibration)."),
+        *water.calibration_fields(),
     ),
     outputs=(Output("saturation", "Water against saturation", "percent",
                     "The sensor's reading, or worked out from ppm and temperature.",
@@ -157,7 +159,8 @@ INGRESS = ("condensation", "seal-ingress", "cooler-leak", "wet-topup")
              "Water limits 200 / 500 / 1000 ppm and 80 / 100 % saturation: common practice, "
              "from memory"),
 )
-def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil):
+def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil, cal_temp1, cal_ppm1,
+                    cal_temp2, cal_ppm2):
     """Rank the ways water gets into the oil from the ticked SYMPTOMS and readings.
 
     Without a sensor reading, the % saturation is worked out from the ppm and the oil
@@ -165,7 +168,7 @@ def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil):
     """
     saturation = rh
     if rh is None and ppm is not None and temp is not None:
-        line = water.saturation_line(oil)
+        line = water.saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
         saturation = relative_saturation_pct(ppm, temp, line.a, line.b)
     found.values["saturation"] = saturation
     if ppm is not None:
@@ -189,6 +192,6 @@ def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil):
         board.add("condensation", WEAK, "oil runs at {0}, below {1}: too cool to drive off water",
                   Q(temp, "temperature"), Q(COOL_RUNNING_C, "temperature"))
     if saturation is not None and rh is None:
-        found.note("Saturation worked out from {0} at {1} with the preset line of this oil type "
-                   "(from memory); the water-in-oil tool takes an own calibration.",
+        found.note("Saturation worked out from {0} at {1} with the saturation line of this oil "
+                   "(a preset from memory, or the own calibration given).",
                    Q(ppm, "ppm"), Q(temp, "temperature"))

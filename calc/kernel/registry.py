@@ -22,12 +22,17 @@ import inspect
 import math
 import pkgutil
 from dataclasses import dataclass
+from datetime import date
 from typing import Callable
 
 from . import units
 from .constants import ABSOLUTE_ZERO_C
 from .errors import InputError, typed
-from .result import Q, Result
+from .result import Q, Result, Text
+
+# Quantities kept as text: free text, and a calendar day (ISO 8601 date).
+TEXT_QUANTITIES = ("text", "date")
+TEXT_MAX_CHARS = 200
 
 # The packages whose modules declare tools and checklists.
 PACKAGES = ("calc.tools", "calc.checklists")
@@ -66,12 +71,18 @@ class Tracked:
 
 
 TRACKED = {t.key: t for t in (
+    Tracked("oil_temp", "Oil temperature", "temperature"),
     Tracked("kv40", "Viscosity at 40 °C", "kinematic_viscosity"),
     Tracked("kv40_change", "Viscosity change from new", "percent"),
     Tracked("water_ppm", "Water content", "ppm"),
     Tracked("water_saturation", "Water, % of saturation", "percent"),
+    Tracked("iso4406_4", "ISO 4406 code, ≥4 µm(c)", "count"),
+    Tracked("iso4406_6", "ISO 4406 code, ≥6 µm(c)", "count"),
+    Tracked("iso4406_14", "ISO 4406 code, ≥14 µm(c)", "count"),
+    Tracked("acid_number", "Acid number", "acid_number"),
     Tracked("acid_rise", "Acid number rise", "acid_number"),
     Tracked("oxidation_reserve", "Oxidation reserve", "percent"),
+    Tracked("air_release", "Air-release time", "minutes"),
 )}
 
 
@@ -79,14 +90,17 @@ TRACKED = {t.key: t for t in (
 class Field:
     """One input of a tool.
 
-    quantity : a key of `units.QUANTITIES`, "choice" for a pick from `choices`, or
-        "flag" for a tick box (reaches the function as True / False)
+    quantity : a key of `units.QUANTITIES`, "choice" for a pick from `choices`, "flag" for
+        a tick box (reaches the function as True / False), "text" for free text (at most
+        `max` characters) or "date" for a calendar day (YYYY-MM-DD)
     default : what the form starts with, metric; None with ``optional`` means blank
     min, max : the allowed range, metric, inclusive
     choices : (value, label) pairs of a choice field
     optional : a blank entry is allowed and reaches the function as None
     group : "reading" (typed at the machine), "machine" (a fact of the machine) or
-        "limits" (limits and options)
+        "limits" (limits and options); a field bound to the machine card is a machine fact
+    binds : the machine card's field this input takes when a machine is chosen
+    tracks : the condition quantity (TRACKED) this input is a reading of, followed over time
     """
 
     key: str
@@ -99,10 +113,25 @@ class Field:
     choices: tuple[tuple[str, str], ...] = ()
     optional: bool = False
     group: str = "reading"
+    binds: str | None = None
+    tracks: str | None = None
+
+    def __post_init__(self):
+        if self.binds is not None and self.group == "reading":
+            object.__setattr__(self, "group", "machine")
 
     @property
     def is_choice(self) -> bool:
         return self.quantity in ("choice", "flag")
+
+    @property
+    def is_text(self) -> bool:
+        """Free text or a date: kept as typed (trimmed), never converted."""
+        return self.quantity in TEXT_QUANTITIES
+
+    @property
+    def is_number(self) -> bool:
+        return not (self.is_choice or self.is_text)
 
     @property
     def is_flag(self) -> bool:
@@ -121,6 +150,12 @@ class Field:
                 raise ValueError(f"{where}: choice {self.key!r} needs choices and a default "
                                  "among them")
             return
+        if self.tracks is not None and (self.tracks not in TRACKED
+                                        or TRACKED[self.tracks].quantity != self.quantity):
+            raise ValueError(f"{where}: field {self.key!r} tracks {self.tracks!r}, which is "
+                             f"not a {self.quantity} condition quantity")
+        if self.is_text:
+            return
         units.quantity(self.quantity)
         if self.default is None and not self.optional:
             return
@@ -131,7 +166,7 @@ class Field:
         """The metric value of what was typed, or InputError naming this field."""
         if self.is_flag:
             return _parse_flag(raw, self.key)
-        if raw is None or (isinstance(raw, str) and not raw.strip()):
+        if _blank(raw):
             if self.optional:
                 return None
             if self.default is None:
@@ -144,9 +179,43 @@ class Field:
                 raise InputError(self.key, "must be one of {allowed}, not {typed}",
                                  allowed=Q(", ".join(allowed), "text"), typed=typed(value))
             return value
+        if self.is_text:
+            return self.parse_text(raw)
         value = units.to_metric(units.parse_number(raw, self.key), self.quantity, system)
         self.check_range(value, system)
         return value
+
+    def parse_text(self, raw: object) -> str:
+        """Free text trimmed (no control characters, at most `max` characters), or a date."""
+        value = " ".join(str(raw).split()) if self.quantity == "date" else str(raw).strip()
+        if any(ord(c) < 32 and c not in "\n\t" for c in value):
+            raise InputError(self.key, "holds control characters: type plain text")
+        most = int(self.max) if self.max is not None else TEXT_MAX_CHARS
+        if len(value) > most:
+            raise InputError(self.key, "is {length} characters long; at most {most}",
+                             length=Q(float(len(value)), "count"), most=Q(float(most), "count"))
+        if self.quantity == "date":
+            try:
+                date.fromisoformat(value)
+            except ValueError:
+                raise InputError(self.key, "is a date written year-month-day, like 2026-03-31, "
+                                           "not {typed}", typed=typed(value)) from None
+        return value
+
+    def accepts(self, metric: object) -> bool:
+        """Whether a value already in metric (a machine card's fact) is valid for this field."""
+        try:
+            if self.is_choice:
+                return metric in [c[0] for c in self.choices] or (
+                    self.is_flag and isinstance(metric, bool))
+            if self.is_text:
+                return isinstance(metric, str) and self.parse_text(metric) == metric
+            if isinstance(metric, bool) or not isinstance(metric, (int, float)):
+                return False
+            self.check_range(float(metric), "metric")
+            return True
+        except InputError:
+            return False
 
     def check_range(self, value: float, system: str) -> None:
         if self.quantity == "temperature" and value <= ABSOLUTE_ZERO_C:
@@ -167,30 +236,33 @@ class Field:
 
     def describe(self, system: str = "metric") -> dict:
         """This field for the catalogue, in `system` units."""
-        convert = (lambda v: v) if self.is_choice else (
-            lambda v: None if v is None else units.from_metric(v, self.quantity, system))
+        number = self.is_number
+        convert = (lambda v: None if v is None else units.from_metric(v, self.quantity, system)
+                   ) if number else (lambda v: v)
+        shared = {"key": self.key, "label": self.label, "help": self.help, "group": self.group,
+                  "binds": self.binds, "tracks": self.tracks}
         if self.is_flag:
-            return {"key": self.key, "label": self.label, "quantity": "flag", "unit": "",
-                    "default": bool(self.default), "min": None, "max": None, "help": self.help,
-                    "choices": [], "optional": True, "group": self.group}
+            return {**shared, "quantity": "flag", "unit": "", "default": bool(self.default),
+                    "min": None, "max": None, "choices": [], "optional": True}
         return {
-            "key": self.key,
-            "label": self.label,
+            **shared,
             "quantity": self.quantity,
-            "unit": "" if self.is_choice else units.unit_label(self.quantity, system),
-            "default": self.default if self.is_choice or self.default is None
-            else convert(self.default),
-            "min": None if self.is_choice else convert(self.min),
-            "max": None if self.is_choice else convert(self.max),
-            "help": self.help,
+            "unit": units.unit_label(self.quantity, system) if number else "",
+            "default": convert(self.default),
+            "min": convert(self.min) if number else None,
+            "max": convert(self.max) if number else self.max,
             "choices": [list(c) for c in self.choices],
             "optional": self.optional,
-            "group": self.group,
         }
 
 
 _TRUE = ("1", "true", "yes", "on", "y")
 _FALSE = ("", "0", "false", "no", "off", "n")
+
+
+def _blank(raw: object) -> bool:
+    """Nothing typed: absent, None or only spaces."""
+    return raw is None or (isinstance(raw, str) and not raw.strip())
 
 
 def _parse_flag(raw: object, key: str) -> bool:
@@ -284,6 +356,8 @@ class Tool:
     causes: tuple[Cause, ...] = ()  # a checklist's causes, in the order of its page
     # Input keys the tool no longer takes, each with what to type instead.
     retired: tuple[tuple[str, str], ...] = ()
+    # Input keys that were renamed, each with its new key: the old key still works.
+    renamed: tuple[tuple[str, str], ...] = ()
 
     def field(self, key: str) -> Field:
         for f in self.inputs:
@@ -295,18 +369,61 @@ class Tool:
     def headline(self) -> tuple[str, ...]:
         return tuple(o.key for o in self.outputs if o.headline)
 
-    def parse(self, raw: dict, system: str = "metric") -> dict:
-        """All inputs in metric units, every bad field reported at once."""
+    def parse(self, raw: dict, system: str = "metric", facts: dict | None = None) -> dict:
+        """All inputs in metric units, every bad field reported at once.
+
+        `facts` are a machine card's facts (metric, calc.machines.card): a bound input left
+        blank takes its card field's value, checked like a typed one; one that does not fit
+        this tool is an error naming the input and saying the value came from the card
+        (never a silent fall-back to the tool's default).
+        """
+        return self.parse_from(raw, system, facts)[0]
+
+    def parse_from(self, raw: dict, system: str = "metric",
+                   facts: dict | None = None) -> tuple[dict, list[str]]:
+        """(inputs in metric, the keys that came from the card): see `parse`."""
+        raw, errors = self.rename_old_keys(raw)
+        from_card = []
+        for f in self.inputs:
+            fact = (facts or {}).get(f.binds) if f.binds else None
+            if _blank(raw.get(f.key)) and fact is not None:
+                from_card.append(f.key)
+        return self._parse(raw, system, {k: facts[self.field(k).binds] for k in from_card},
+                           errors), from_card
+
+    def rename_old_keys(self, raw: dict) -> tuple[dict, list[InputError]]:
+        """`raw` with renamed keys under their new names; both given is an error."""
+        raw, errors = dict(raw), []
+        for old, new in self.renamed:
+            if old not in raw:
+                continue
+            if _blank(raw.get(new)):
+                raw[new] = raw.pop(old)
+            else:
+                raw.pop(old)
+                errors.append(InputError(old, "is the old name of {new}: give only {new}",
+                                         new=Q(new, "text")))
+        return raw, errors
+
+    def _parse(self, raw: dict, system: str, metric: dict, errors: list[InputError]) -> dict:
         unknown = sorted(set(raw) - {f.key for f in self.inputs})
         retired = dict(self.retired)
         inputs = Q(", ".join(f.key for f in self.inputs), "text")
-        errors = [InputError(k, "is no longer an input of {tool}: {instead}",
+        errors += [InputError(k, "is no longer an input of {tool}: {instead}",
                              tool=Q(self.id, "text"), instead=Q(retired[k], "text"))
                   if k in retired else
                   InputError(k, "is not an input of {tool}; inputs are {inputs}",
                              tool=Q(self.id, "text"), inputs=inputs) for k in unknown]
         values = {}
         for f in self.inputs:
+            if f.key in metric:
+                try:
+                    values[f.key] = f.parse(metric[f.key], "metric")
+                except InputError as err:
+                    errors.append(InputError(f.key, Text(
+                        err.text.template + " (this value is the machine card's: type one for "
+                        "this reading, or correct the card)", err.text.args, err.text.named)))
+                continue
             try:
                 values[f.key] = f.parse(raw.get(f.key), system)
             except InputError as err:
@@ -315,8 +432,12 @@ class Tool:
             raise InputError.combine(errors)
         return values
 
-    def run(self, raw: dict, system: str = "metric") -> Result:
-        result = self.compute(**self.parse(raw, units.check_system(system)))
+    def run(self, raw: dict, system: str = "metric", facts: dict | None = None) -> Result:
+        return self.run_parsed(self.parse(raw, units.check_system(system), facts))
+
+    def run_parsed(self, values: dict) -> Result:
+        """The answer to inputs already parsed to metric (as `parse` gives them)."""
+        result = self.compute(**values)
         self._check(result)
         return result
 
@@ -383,9 +504,14 @@ def register(found: Tool) -> None:
         f.check_declaration(where)
     for o in found.outputs:
         o.check_declaration(where)
-    clash = set(dict(found.retired)) & set(keys)
-    if clash:
-        raise ValueError(f"{where}: retired keys {sorted(clash)} are still inputs")
+    gone = list(dict(found.retired)) + [old for old, _new in found.renamed]
+    clash = set(gone) & set(keys)
+    if clash or len(set(gone)) != len(gone):
+        raise ValueError(f"{where}: retired or renamed keys {sorted(clash)} are still inputs, "
+                         "or named twice")
+    lost = sorted({new for _old, new in found.renamed} - set(keys))
+    if lost:
+        raise ValueError(f"{where}: keys renamed to {lost}, which are not inputs")
     if not found.headline:
         raise ValueError(f"{where}: no output is marked as the headline")
     known = _TOOLS.get(found.id)
@@ -396,15 +522,18 @@ def register(found: Tool) -> None:
 
 def tool(tool_id: str, *, title: str, summary: str, topic: Topic,
          inputs: tuple[Field, ...], outputs: tuple[Output, ...],
-         retired: dict[str, str] | None = None):
+         retired: dict[str, str] | None = None, renamed: dict[str, str] | None = None):
     """Declare the decorated function as the tool `tool_id`; its parameters are the inputs.
 
-    `retired` names input keys the tool no longer takes, each with what to type instead.
+    `retired` names input keys the tool no longer takes, each with what to type instead;
+    `renamed` maps old input keys to their new ones (a saved reading or a script that uses
+    an old key keeps working).
     """
     def declare(fn: Callable[..., Result]) -> Callable[..., Result]:
         check_signature(tool_id, fn, [f.key for f in inputs])
         register(Tool(tool_id, title, summary, topic, tuple(inputs), tuple(outputs), fn,
-                      retired=tuple((retired or {}).items())))
+                      retired=tuple((retired or {}).items()),
+                      renamed=tuple((renamed or {}).items())))
         return fn
 
     return declare

@@ -101,6 +101,7 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("molar_energy", "kJ/mol"),  # activation energy; shown in SI everywhere
     _quantity("minutes", "min"),
     _quantity("hours", "h", digits=4),
+    _quantity("days", "d", decimals=0),
     _quantity("seconds", "s"),
     _quantity("per_bar", "1/bar", "1/psi", 1.0 / PSI_IN_BAR),
     _quantity("vi", "", decimals=0),  # ASTM D2270 reports VI as a whole number
@@ -189,17 +190,27 @@ def show(value: float | None, quantity_name: str, system: str) -> str:
         return "n/a"
     if quantity_name == "text":
         return str(value)
-    q = quantity(quantity_name)
-    shown = from_metric(value, quantity_name, system)
-    text = f"{shown:.{q.decimals}f}" if q.decimals is not None else format_number(shown, q.digits)
-    if text.startswith("-") and not text.strip("-0."):
-        text = text[1:]  # no "-0.0"
-    unit = q.unit(system)
+    text = show_number(value, quantity_name, system)
+    unit = quantity(quantity_name).unit(system)
     if not unit:
         return text
     if unit == "%":
         return f"{text} %"
     return f"{text} {unit}"
+
+
+def show_number(value: float, quantity_name: str, system: str) -> str:
+    """The number of `show` without its unit, rounded as shown ("20.6", "141.0").
+
+    >>> show_number(60.0, "temperature", "us")
+    '140.0'
+    """
+    q = quantity(quantity_name)
+    shown = from_metric(value, quantity_name, system)
+    text = f"{shown:.{q.decimals}f}" if q.decimals is not None else format_number(shown, q.digits)
+    if text.startswith("-") and not text.strip("-0."):
+        text = text[1:]  # no "-0.0"
+    return text
 
 
 def format_number(value: float, digits: int = 3) -> str:

@@ -64,7 +64,8 @@ GIVE_BANDS = (
         Field("air", "Free air in the oil, at atmospheric pressure", _PCT, 1.0, min=0.0,
               max=50.0, help="Volume of bubbles per volume of oil, as in a sample that has "
                              "just been drawn (milky oil holds several per cent)."),
-        Field("pressure", "Working pressure (gauge)", _P, 160.0, min=0.0, max=1000.0),
+        Field("pressure", "Working pressure (gauge)", _P, 160.0, min=0.0, max=1000.0,
+              binds="working_pressure"),
         Field("process", "How fast the pressure changes", "choice", "isothermal",
               choices=PROCESS_CHOICES,
               help="Slow: the air keeps the oil's temperature. Fast (valve switching, shock): "
@@ -72,7 +73,8 @@ GIVE_BANDS = (
         Field("k_oil", "Bulk modulus of air-free oil", _P, K_OIL_BAR, min=1000.0, max=50000.0,
               help="About 16 000 bar for mineral oil (from memory); water glycols and esters "
                    "differ: use the oil maker's figure."),
-        Field("atmosphere", "Atmospheric pressure (absolute)", _P, ATMOSPHERE_ROUNDED_BAR, min=0.5,
+        Field("atmosphere", "Atmospheric pressure (absolute)", "absolute_pressure",
+              ATMOSPHERE_ROUNDED_BAR, min=0.5,
               max=1.1),
         Field("bore", "Cylinder bore", _MM, 100.0, min=5.0, max=2000.0),
         Field("stroke", "Oil column length (stroke)", _MM, 500.0, min=1.0, max=20000.0,

@@ -168,11 +168,11 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
                                 "the viscosity")
     low, high = sorted((kv_a, kv_b))
     if not low <= target <= high or target == kv_b:
-        raise InputError("target", "must lie between oil A ({kv_a}) and oil B ({kv_b}), and not "
+        raise InputError("target_kv", "must lie between oil A ({kv_a}) and oil B ({kv_b}), and not "
                                    "equal B: a mix of two oils always lies between them",
                          kv_a=Q(kv_a, _KV), kv_b=Q(kv_b, _KV))
     if capacity_l is not None and capacity_l < tank_l:
-        raise InputError("capacity_l", "the tank's capacity must be at least the oil already in it")
+        raise InputError("tank_volume", "the tank's capacity must be at least the oil already in it")
     fraction_b = top_up_fraction(kv_a, kv_b, target)
     add_l = top_up_volume(tank_l, fraction_b)
     drain_l = 0.0
@@ -202,6 +202,7 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
     summary="The viscosity of a mix of up to four oils, or how much of oil B to add to a tank of "
             "oil A to reach a target viscosity.",
     topic=VISCOSITY,
+    renamed={"tank_l": "oil_volume", "capacity_l": "tank_volume", "target": "target_kv"},
     inputs=(
         Field("mode", "What to work out", "choice", "mix", choices=MODE_CHOICES),
         _kv_field(1, 46.0), _amount_field(1, 80.0),
@@ -211,15 +212,16 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
         Field("basis", "Amounts are", "choice", "volume", choices=BASIS_CHOICES,
               help="Mix only."),
         Field("grade", "Grade that should be in the tank", "choice", MAIN_GRADE,
-              choices=EXPECTED_CHOICES, group="machine",
+              choices=EXPECTED_CHOICES, binds="grade",
               help="The result is judged against this grade's ISO 3448 band; by default the "
                    "grade the main oil (oil A for a top-up) is in."),
-        Field("tank_l", "Oil A in the tank now", _VOL, 200.0, min=0.1, max=1.0e6,
-              help="Top-up only."),
-        Field("capacity_l", "Tank capacity", _VOL, None, min=0.1, max=1.0e6, optional=True,
+        Field("oil_volume", "Oil A in the tank now", _VOL, 200.0, min=0.1, max=1.0e6,
+              binds="oil_volume", help="Top-up only."),
+        Field("tank_volume", "Tank capacity", _VOL, None, min=0.1, max=1.0e6, optional=True,
+              binds="tank_volume",
               help="Top-up only. When the top-up does not fit, the tool says how much oil A to "
                    "drain first."),
-        Field("target", "Target viscosity", _KV, 50.0, min=KV_MIN_CST, max=KV_MAX_CST,
+        Field("target_kv", "Target viscosity", _KV, 50.0, min=KV_MIN_CST, max=KV_MAX_CST,
               help="Top-up only: at the same temperature as oils A and B."),
     ),
     outputs=(
@@ -233,16 +235,16 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
     ),
 )
 def viscosity_blend(mode: str, kv1: float, amount1: float, kv2: float, amount2: float,
-                    basis: str, grade: str, tank_l: float, target: float,
+                    basis: str, grade: str, oil_volume: float, target_kv: float,
                     kv3: float | None = None, amount3: float | None = None,
                     kv4: float | None = None, amount4: float | None = None,
-                    capacity_l: float | None = None) -> Result:
+                    tank_volume: float | None = None) -> Result:
     """Mix result or top-up volume by the Refutas blending numbers (ASTM D7152 practice)."""
     result = Result(values={})
     if mode == "mix":
         _mix(result, [kv1, kv2, kv3, kv4], [amount1, amount2, amount3, amount4], basis, grade)
     else:
-        _top_up(result, kv1, kv2, target, tank_l, capacity_l, grade)
+        _top_up(result, kv1, kv2, target_kv, oil_volume, tank_volume, grade)
     result.note("All viscosities must be at the same temperature (usually {0}); the result is "
                 "at that temperature.", Q(40.0, "temperature"))
     result.note("Oils of different makes or types (zinc and zinc-free antiwear, mineral and "

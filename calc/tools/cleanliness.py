@@ -85,14 +85,14 @@ def _count_field(key: str, size: int, default: float) -> Field:
                  help="Cumulative count per mL from the particle counter or lab report.")
 
 
-def _scale_field(key: str, label: str, help_text: str) -> Field:
-    return Field(key, label, _SCALE, None, min=0.0, max=float(TOP_SCALE), optional=True,
-                 help=help_text)
-
-
-def scale_fields(prefix: str, label: str, help_text: str) -> tuple[Field, ...]:
-    """Three optional scale-number fields `<prefix>4`, `<prefix>6`, `<prefix>14`."""
-    return tuple(_scale_field(f"{prefix}{size}", f"{label}, ≥{size} µm(c)", help_text)
+def scale_fields(prefix: str, label: str, help_text: str, *, target: bool = False,
+                 reading: bool = False) -> tuple[Field, ...]:
+    """Three optional scale-number fields `<prefix>4`, `<prefix>6`, `<prefix>14`: a target
+    (taken from the machine card's own target) or a reading (followed over time)."""
+    return tuple(Field(f"{prefix}{size}", f"{label}, ≥{size} µm(c)", _SCALE, None, min=0.0,
+                       max=float(TOP_SCALE), optional=True, help=help_text,
+                       binds=f"target{size}" if target else None,
+                       tracks=f"iso4406_{size}" if reading else None)
                  for size in SIZES_UM)
 
 
@@ -132,14 +132,17 @@ def add_cleanliness_verdict(result: Result, measured: Code, target: Code) -> Non
         _count_field("count14", 14, 52.0),
         *scale_fields("scale", "Code on the report", "Used when starting from a code; leave "
                       "blank for a size written '-'."),
-        Field("component", "Most sensitive component", "choice", "piston",
+        Field("component", "Most sensitive component", "choice", "piston", binds="component",
               choices=COMPONENT_CHOICES),
-        Field("pressure", "Working pressure", "pressure", 160.0, min=0.0, max=1000.0),
+        Field("pressure", "Working pressure", "pressure", 160.0, min=0.0, max=1000.0,
+              binds="working_pressure"),
         *scale_fields("target", "Own target", "Leave all three blank to use the typical "
-                      "target for the component and pressure."),
+                      "target for the component and pressure.", target=True),
     ),
     outputs=(
         Output("code", "ISO 4406 code", "text", headline=True),
+        *(Output(f"scale{size}", f"Scale number, ≥{size} µm(c)", _SCALE,
+                 tracks=f"iso4406_{size}") for size in SIZES_UM),
         Output("low4", "≥4 µm(c): more than", _COUNT),
         Output("high4", "≥4 µm(c): up to", _COUNT),
         Output("low6", "≥6 µm(c): more than", _COUNT),
@@ -168,6 +171,7 @@ def iso_4406(source: str, count4: float, count6: float, count14: float,
     target = own if any(n is not None for n in own) else target_code(component, pressure)
     values: dict[str, float | str | None] = {"code": format_code(measured)}
     for size, number in zip(SIZES_UM, measured):
+        values[f"scale{size}"] = None if number is None else float(number)
         low, high = (None, None) if number is None else scale_range(number)
         values[f"low{size}"], values[f"high{size}"] = low, high
     values["target_code"] = format_code(target)

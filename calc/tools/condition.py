@@ -25,7 +25,7 @@ from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Result
 from ..methods.cleanliness import worst_excess
 from ..methods.condition import acid_number_rise, viscosity_change_pct
 from .cleanliness import add_cleanliness_verdict, code_from_fields, excess_text, scale_fields
-from .water import OIL_CHOICES, OWN_CALIBRATION, saturation_line
+from .water import OIL_CHOICES, calibration_fields, saturation_line
 
 _KV, _PCT, _AN, _PPM = "kinematic_viscosity", "percent", "acid_number", "ppm"
 
@@ -85,8 +85,7 @@ SATURATION_BANDS = (
     Band("ok", "Water {value} is only {share} of what this oil holds dissolved at {temp}."),
 )
 UNKNOWN_OIL = "unknown"
-OIL_TYPE_CHOICES = ((UNKNOWN_OIL, "Not known"),) + tuple(
-    c for c in OIL_CHOICES if c[0] != OWN_CALIBRATION)
+OIL_TYPE_CHOICES = ((UNKNOWN_OIL, "Not known"),) + OIL_CHOICES
 RESERVE_BANDS = (
     Band("act", "Oxidation reserve {value} of new (act at {act}): the antioxidant is nearly "
                 "spent; plan the oil change and flush if there is varnish.", at_most="act",
@@ -107,22 +106,31 @@ def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
     summary="A reading or lab report against watch and act limits: viscosity change, acid "
             "number, water, cleanliness and oxidation reserve, with one overall verdict.",
     topic=AGEING,
+    renamed={"kv40": "kv40_now"},
     inputs=(
         Field("kv40_new", "KV40 of the new oil", _KV, 46.0, min=1.0, max=10000.0,
+              binds="kv40_new",
               help="From the new-oil data sheet or the first sample."),
-        Field("kv40", "KV40 now", _KV, 49.5, min=1.0, max=10000.0),
-        Field("an_new", "Acid number of the new oil", _AN, None, min=0.0, max=20.0, optional=True),
-        Field("an_now", "Acid number now", _AN, None, min=0.0, max=50.0, optional=True),
-        Field("ppm", "Water", _PPM, None, min=0.0, max=1.0e6, optional=True),
+        Field("kv40_now", "KV40 now", _KV, 49.5, min=1.0, max=10000.0, tracks="kv40"),
+        Field("an_new", "Acid number of the new oil", _AN, None, min=0.0, max=20.0, optional=True,
+              binds="an_new"),
+        Field("an_now", "Acid number now", _AN, None, min=0.0, max=50.0, optional=True,
+              tracks="acid_number"),
+        Field("ppm", "Water", _PPM, None, min=0.0, max=1.0e6, optional=True,
+              tracks="water_ppm"),
         Field("temp", "Oil temperature at sampling", "temperature", None, min=-40.0, max=150.0,
+              tracks="oil_temp",
               optional=True, help="With the oil type, the water is read against saturation."),
         Field("oil", "Oil type", "choice", UNKNOWN_OIL, choices=OIL_TYPE_CHOICES,
-              group="machine", help="Sets how much water the oil holds dissolved (the "
+              binds="oil_family", help="Sets how much water the oil holds dissolved (the "
                                     "water-in-oil tool's presets, from memory)."),
-        *scale_fields("code", "ISO 4406 code now", "Blank for a size not reported ('-')."),
+        *calibration_fields(),
+        *scale_fields("code", "ISO 4406 code now", "Blank for a size not reported ('-').",
+                      reading=True),
         *scale_fields("target", "ISO 4406 target", "From the iso-4406 tool or the machine "
-                      "maker."),
+                      "maker.", target=True),
         Field("reserve", "Oxidation reserve, % of new", _PCT, None, min=0.0, max=200.0,
+              tracks="oxidation_reserve",
               optional=True, help="RPVOT or similar, as a % of the new oil's result."),
         _limit("visc_watch", "Viscosity change: watch", _PCT, 5.0, 0.5, 50.0, "common practice"),
         _limit("visc_act", "Viscosity change: act", _PCT, 10.0, 1.0, 80.0,
@@ -148,9 +156,11 @@ def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
         Output("findings", "Findings over a limit", "text", headline=True),
     ),
 )
-def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
+def oil_condition(kv40_new: float, kv40_now: float, an_new: float | None = None,
                   an_now: float | None = None, ppm: float | None = None,
                   temp: float | None = None, oil: str = UNKNOWN_OIL,
+                  cal_temp1: float | None = None, cal_ppm1: float | None = None,
+                  cal_temp2: float | None = None, cal_ppm2: float | None = None,
                   code4: float | None = None, code6: float | None = None,
                   code14: float | None = None, target4: float | None = None,
                   target6: float | None = None, target14: float | None = None,
@@ -159,6 +169,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
                   water_act: float = 500.0, reserve_watch: float = 50.0,
                   reserve_act: float = 25.0) -> Result:
     """Every reading given against its limits; the worst level is the verdict."""
+    kv40 = kv40_now
     for watch_key, watch, act in (("visc_watch", visc_watch, visc_act),
                                   ("an_watch", an_watch, an_act),
                                   ("water_watch", water_watch, water_act)):
@@ -166,16 +177,14 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
             raise InputError(watch_key, "the watch limit must be below the act limit")
     if reserve_act >= reserve_watch:
         raise InputError("reserve_watch", "the watch level must be above the act level")
-    if (an_new is None) != (an_now is None):
-        raise InputError("an_new" if an_new is None else "an_now",
-                         "enter both acid numbers, new and now, or neither")
+    if an_now is not None and an_new is None:  # the new oil's alone (a card's) is no reading
+        raise InputError("an_new", "enter the new oil's acid number too, to see the rise")
     code = code_from_fields("code", (code4, code6, code14))
     target = code_from_fields("target", (target4, target6, target14))
     has_code, has_target = any(n is not None for n in code), any(n is not None for n in target)
-    if has_code != has_target:
-        raise InputError("target6" if has_code else "code6",
-                         "enter both the code now and its target, or neither (the iso-4406 "
-                         "tool gives typical targets)")
+    if has_code and not has_target:  # a target alone (as a machine card gives) is no reading
+        raise InputError("target6", "enter the target for the code, or leave the code blank "
+                                    "(the iso-4406 tool gives typical targets)")
 
     result = Result(values={"level": "ok", "visc_change": None, "an_rise": None,
                             "water_saturation": None,
@@ -185,7 +194,7 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
     result.grade(abs(change), VISCOSITY_UP_BANDS if change > 0 else VISCOSITY_DOWN_BANDS,
                  COMMON_PRACTICE, kv40=Q(kv40, _KV), new=Q(kv40_new, _KV),
                  change=Q(abs(change), _PCT), watch=Q(visc_watch, _PCT), act=Q(visc_act, _PCT))
-    if an_new is not None:
+    if an_now is not None:
         rise = acid_number_rise(an_now, an_new)
         result.values["an_rise"] = rise
         result.grade(rise, ACID_BANDS, FROM_MEMORY, **_limits(_AN, rise, an_watch, an_act))
@@ -193,7 +202,8 @@ def oil_condition(kv40_new: float, kv40: float, an_new: float | None = None,
         result.grade(ppm, WATER_BANDS, COMMON_PRACTICE,
                      **_limits(_PPM, ppm, water_watch, water_act))
         if temp is not None and oil != UNKNOWN_OIL:
-            share = 100.0 * ppm / saturation_line(oil).saturation(temp)
+            line = saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
+            share = 100.0 * ppm / line.saturation(temp)
             result.values["water_saturation"] = share
             result.grade(share, SATURATION_BANDS, COMMON_PRACTICE, value=Q(ppm, _PPM),
                          share=Q(share, _PCT), temp=Q(temp, "temperature"))

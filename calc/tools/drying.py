@@ -55,13 +55,14 @@ def drying_target_ppm(sat_cold_ppm: float, fraction: float = TARGET_FRACTION) ->
             "the water content now to a target, and what target keeps free water from "
             "dropping out at the coldest temperature.",
     topic=WATER,
+    renamed={"volume": "oil_volume", "flow": "dryer_flow", "efficiency": "dryer_efficiency"},
     inputs=reading_fields() + (
         Field("target_ppm", "Target water content", _PPM, None, min=1.0, max=100000.0,
               optional=True,
               help="Leave blank for 50 % of saturation at the coldest temperature "
                    "(common practice), or enter the machine maker's limit."),
-        Field("flow", "Dehydrator flow", "flow", 20.0, min=0.1, max=10000.0),
-        Field("efficiency", "Water removed per pass", "percent", 50.0, min=1.0, max=100.0,
+        Field("dryer_flow", "Dehydrator flow", "flow", 20.0, min=0.1, max=10000.0),
+        Field("dryer_efficiency", "Water removed per pass", "percent", 50.0, min=1.0, max=100.0,
               help="Single-pass efficiency from the unit's data sheet: the share of the "
                    "water in the oil it removes in one pass at this content."),
     ) + tank_fields() + oil_fields(),
@@ -76,7 +77,8 @@ def drying_target_ppm(sat_cold_ppm: float, fraction: float = TARGET_FRACTION) ->
     ),
 )
 def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: float,
-                 flow: float, efficiency: float, volume: float, density: float, oil: str,
+                 dryer_flow: float, dryer_efficiency: float, oil_volume: float, density: float,
+                 oil: str,
                  target_ppm: float | None = None, cal_temp1: float | None = None,
                  cal_ppm1: float | None = None, cal_temp2: float | None = None,
                  cal_ppm2: float | None = None) -> Result:
@@ -87,14 +89,14 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
     sat_cold = line.saturation(temp_cold)
     usual = drying_target_ppm(sat_cold)
     target = usual if target_ppm is None else target_ppm
-    minutes = drying_time_min(content, target, flow, efficiency, volume)
+    minutes = drying_time_min(content, target, dryer_flow, dryer_efficiency, oil_volume)
     result = Result(values={
         "ppm": content,
         "target_ppm": target,
         "hours": minutes / 60.0,
-        "half_hours": halving_time_min(flow, efficiency, volume) / 60.0,
-        "passes": flow * minutes / volume,
-        "removed_ml": water_volume_ml(max(0.0, content - target), volume, density),
+        "half_hours": halving_time_min(dryer_flow, dryer_efficiency, oil_volume) / 60.0,
+        "passes": dryer_flow * minutes / oil_volume,
+        "removed_ml": water_volume_ml(max(0.0, content - target), oil_volume, density),
         "target_basis": ("50 % of saturation at the coldest temperature (common practice)"
                          if target_ppm is None else "entered"),
     })
@@ -103,7 +105,7 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
         result.note(DRAIN_CAUTION)
     result.grade(minutes, DRYING_BANDS, COMMON_PRACTICE, ppm=Q(content, _PPM),
                  target=Q(target, _PPM), hours=Q(minutes / 60.0, "hours"),
-                 passes=Q(flow * minutes / volume, "ratio"))
+                 passes=Q(dryer_flow * minutes / oil_volume, "ratio"))
     if target_ppm is not None:
         result.grade(target_ppm, TARGET_BANDS, COMMON_PRACTICE, target=Q(target_ppm, _PPM),
                      cold=Q(temp_cold, _T), sat_cold=Q(sat_cold, _PPM), usual=Q(usual, _PPM))
@@ -111,7 +113,7 @@ def water_drying(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
                 "Vacuum and air-stripping dehydrators take dissolved water; coalescing and "
                 "water-absorbing filters take mainly free water and slow down near saturation, "
                 "and an absorbing element holds only so much water (compare {0} with its "
-                "rated capacity).", Q(water_volume_ml(max(0.0, content - target), volume,
+                "rated capacity).", Q(water_volume_ml(max(0.0, content - target), oil_volume,
                                                           density), "volume_ml"))
     result.note("Connecting a unit means opening the circuit: stop and lock out the machine, "
                 "relieve pressure (accumulators too), mind hot oil and surfaces, and follow the "

@@ -263,8 +263,9 @@ def _limit_field(key: str, label: str, quantity: str, high: float) -> Field:
             "limits for the oil's grade, and what the pattern points to.",
     topic=AIR,
     inputs=(
-        Field("grade", "Oil grade", "choice", "VG 46", choices=GRADE_CHOICES),
+        Field("grade", "Oil grade", "choice", "VG 46", choices=GRADE_CHOICES, binds="grade"),
         Field("air_release", "Air-release time at 50 °C", _MIN, None, min=0.0, max=120.0,
+              tracks="air_release",
               optional=True, help="ISO 9120 / ASTM D3427, minutes to 0.2 % air."),
         _foam_field("seq1_tendency", "Sequence I (24 °C): tendency"),
         _foam_field("seq1_stability", "Sequence I (24 °C): stability"),

@@ -58,15 +58,16 @@ EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
     summary="The ISO VG grade of a measured viscosity, also from a reading at another "
             "temperature, and whether it is the oil that should be in the tank.",
     topic=VISCOSITY,
+    renamed={"temp": "kv_temp"},
     inputs=(
         Field("kv", "Measured viscosity", _KV, 48.0, min=0.5, max=1.0e5,
               help="Kinematic viscosity from the lab report or a field viscometer."),
-        Field("temp", "Temperature of the reading", _T, 40.0, min=-30.0, max=150.0,
+        Field("kv_temp", "Temperature of the reading", _T, 40.0, min=-30.0, max=150.0,
               help="40 °C for a standard KV40. Any other temperature is traced back to 40 °C."),
-        Field("vi", "Viscosity index of the oil", "vi", 100.0, min=-100.0, max=400.0,
+        Field("vi", "Viscosity index of the oil", "vi", 100.0, min=-100.0, max=400.0, binds="vi",
               help="From the data sheet; used only when the reading is not at 40 °C."),
         Field("grade", "Grade that should be in the tank", "choice", "VG 46",
-              choices=EXPECTED_CHOICES),
+              choices=EXPECTED_CHOICES, binds="grade"),
     ),
     outputs=(
         Output("kv40", "Viscosity at 40 °C", _KV, headline=True, tracks="kv40"),
@@ -78,8 +79,9 @@ EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
         Output("off_expected", "Off the expected grade's mid-point", _PCT),
     ),
 )
-def viscosity_grade(kv: float, temp: float, vi: float, grade: str) -> Result:
+def viscosity_grade(kv: float, kv_temp: float, vi: float, grade: str) -> Result:
     """ISO 3448 grade of a reading, and the wrong-oil check against the expected grade."""
+    temp = kv_temp
     kv40, kv100 = kv40_from_reading(kv, temp, vi)
     name, off = nearest_grade(kv40)
     inside = grade_containing(kv40)
@@ -206,8 +208,10 @@ FIT_BANDS = (  # graded on the number of grades that fit (common practice)
     topic=VISCOSITY,
     inputs=(
         Field("temp_cold", "Coldest start-up temperature", _T, 0.0, min=-50.0, max=100.0,
+              binds="temp_cold_start",
               help="Oil temperature at the coldest start: the tank on a winter morning."),
         Field("temp_hot", "Hottest steady temperature", _T, 60.0, min=-20.0, max=150.0,
+              binds="temp_hottest",
               help="Oil temperature in the tank at full load on the hottest day."),
         *PUMP_FIELDS,
         Field("vi_set", "VIs to try", "choice", "common", choices=VI_SET_CHOICES),

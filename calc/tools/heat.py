@@ -132,24 +132,30 @@ _H = "heat_transfer"
     summary="Heat the circuit puts into the oil, what the tank sheds by itself, the oil "
             "temperature it settles at, the warm-up time and the cooler needed for a target.",
     topic=TANK,
+    renamed={"flow": "throttle_flow", "level": "working_level", "target": "target_temp"},
     inputs=(
         Field("load_from", "Heat load", "choice", "power", choices=LOAD_CHOICES),
         Field("power", "Power into the pump", _KW, 7.5, min=0.0, max=5000.0,
               help="Motor shaft power averaged over the cycle."),
         Field("efficiency", "Overall efficiency of the circuit", "percent", 80.0, min=0.0,
               max=100.0, help="Share of the input power that leaves as useful work."),
-        Field("flow", "Flow through the relief or throttle", "flow", 60.0, min=0.0, max=1.0e5),
+        Field("throttle_flow", "Flow through the relief or throttle", "flow", 60.0, min=0.0,
+              max=1.0e5),
         Field("dp", "Pressure drop across it", "pressure", 150.0, min=0.0, max=1000.0),
     ) + shape_fields() + (
+        Field("working_level", "Working oil level", "length", 550.0, min=0.0, max=20000.0,
+              binds="working_level",
+              help="From the inside bottom of the tank to the oil surface at work."),
         Field("surfaces", "Surfaces that shed heat", "choice", "wetted", choices=SURFACE_CHOICES),
         Field("emissivity", "Emissivity of the tank surface", "ratio", 0.9, min=0.02, max=1.0,
               help="About 0.9 for painted steel, 0.1 to 0.3 for bare or galvanised sheet "
                    "(from memory)."),
         Field("wall", "Wall thickness", "length", 3.0, min=0.5, max=50.0),
-        Field("ambient", "Air temperature around the tank", _T, 25.0, min=-40.0, max=60.0),
+        Field("ambient", "Air temperature around the tank", _T, 25.0, min=-40.0, max=60.0,
+              binds="ambient"),
         Field("start", "Oil temperature at start", _T, None, min=-40.0, max=150.0, optional=True,
               help="Blank: the oil starts at the air temperature."),
-        Field("target", "Target oil temperature", _T, 55.0, min=-30.0, max=150.0,
+        Field("target_temp", "Target oil temperature", _T, 55.0, min=-30.0, max=150.0,
               help="The temperature to hold (cooler duty) and to warm up to."),
     ),
     outputs=(
@@ -168,16 +174,18 @@ _H = "heat_transfer"
                "How long the tank alone takes to get most of the way to its steady temperature."),
     ),
 )
-def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: float,
+def tank_heat(load_from: str, power: float, efficiency: float, throttle_flow: float, dp: float,
               shape: str, length: float, width: float, height: float, diameter: float,
-              level: float, surfaces: str, emissivity: float, wall: float, ambient: float,
-              target: float, start: float | None = None) -> Result:
+              working_level: float, surfaces: str, emissivity: float, wall: float,
+              ambient: float, target_temp: float, start: float | None = None) -> Result:
     """Heat load against the tank's own shedding: steady temperature, warm-up, cooler duty."""
-    check_level(shape, height, diameter, level)
+    flow, level, target = throttle_flow, working_level, target_temp
+    check_level(shape, height, diameter, level, "working_level")
     if level <= 0.0:
-        raise InputError("level", "the tank must hold some oil: enter a level above the bottom")
+        raise InputError("working_level", "the tank must hold some oil: enter a level above the "
+                                          "bottom")
     if target <= ambient:
-        raise InputError("target", "the target must be above the air temperature: a tank "
+        raise InputError("target_temp", "the target must be above the air temperature: a tank "
                                    "cannot shed heat to warmer air")
     start_c = ambient if start is None else start
     load = (heat_load_from_power_kw(power, efficiency) if load_from == "power"
@@ -192,7 +200,7 @@ def tank_heat(load_from: str, power: float, efficiency: float, flow: float, dp: 
     capacity = heat_capacity_kj_per_k(oil, steel_kg)
     area = sum(a for a, _, _ in faces)
     if area < 1e-6:
-        raise InputError("level", "almost no tank surface is wetted at this level: enter the "
+        raise InputError("working_level", "almost no tank surface is wetted at this level: enter the "
                                   "working level, or count all walls")
     shed_target = loss(target)
     h_rad = radiation_coefficient(emissivity, target, ambient)

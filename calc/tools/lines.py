@@ -68,8 +68,10 @@ def velocity_range(line: str, pressure_bar: float = 0.0) -> tuple[float, float]:
     summary="How fast the oil moves in a suction, pressure or return line, against common "
             "practice ranges, and the bore (and hose size) a target velocity needs.",
     topic=TANK,
+    renamed={"flow": "line_flow", "target": "target_velocity"},
     inputs=(
-        Field("flow", "Flow in the line", "flow", 100.0, min=0.1, max=20000.0,
+        Field("line_flow", "Flow in the line", "flow", 100.0, min=0.1, max=20000.0,
+              binds="pump_flow",
               help="Pump flow for suction and pressure lines; for a return line the flow that "
                    "comes back, which a cylinder's cap side can make larger than the pump's."),
         Field("bore", "Inside diameter (bore)", _MM, 25.0, min=1.0, max=600.0,
@@ -77,8 +79,9 @@ def velocity_range(line: str, pressure_bar: float = 0.0) -> tuple[float, float]:
                    "thread size."),
         Field("line", "Line type", "choice", "pressure", choices=LINE_CHOICES),
         Field("pressure", "Working pressure (pressure lines)", "pressure", 160.0, min=0.0,
+              binds="working_pressure",
               max=1000.0, help="Used only for pressure lines: higher pressure allows faster oil."),
-        Field("target", "Target velocity", _V, None, min=0.1, max=20.0, optional=True,
+        Field("target_velocity", "Target velocity", _V, None, min=0.1, max=20.0, optional=True,
               help="Leave blank to size for the top of the common-practice range."),
     ),
     outputs=(
@@ -92,9 +95,10 @@ def velocity_range(line: str, pressure_bar: float = 0.0) -> tuple[float, float]:
         Output("hose_velocity", "Velocity in that hose", _V),
     ),
 )
-def velocity_in_line(flow: float, bore: float, line: str, pressure: float,
-                       target: float | None = None) -> Result:
+def velocity_in_line(line_flow: float, bore: float, line: str, pressure: float,
+                     target_velocity: float | None = None) -> Result:
     """Velocity in the bore against the line type's range, and the bore a target needs."""
+    flow, target = line_flow, target_velocity
     low, high = velocity_range(line, pressure)
     goal = high if target is None else target
     velocity = line_velocity(flow, bore)

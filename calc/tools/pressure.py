@@ -66,6 +66,7 @@ def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> flo
         Field("kv", "Viscosity at atmospheric pressure", _KV, 46.0, min=0.5, max=1.0e5,
               help="At the working temperature."),
         Field("pressure", "Pressure", _P, 250.0, min=0.0, max=PRESSURE_MAX_BAR,
+              binds="working_pressure",
               help="Gauge pressure, above atmospheric."),
         Field("alpha_from", "Pressure-viscosity coefficient", "choice", "entered",
               choices=(("entered", "Entered below"), ("fitted", "Fitted from two readings"))),

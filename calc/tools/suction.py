@@ -98,7 +98,7 @@ VELOCITY_BANDS = (
 
 
 def _count(key: str, label: str, default: float) -> Field:
-    return Field(key, label, "count", default, min=0.0, max=20.0,
+    return Field(key, label, "count", default, min=0.0, max=20.0, binds=key,
                  help="How many in the suction line between the tank and the pump.")
 
 
@@ -109,43 +109,54 @@ def _count(key: str, label: str, default: float) -> Field:
             "pump's minimum, and the oil temperature below which the pump starves.",
     topic=TANK,
     inputs=(
-        Field("flow", "Pump flow", "flow", 100.0, min=0.1, max=5000.0),
-        Field("bore", "Suction line bore", "length", 50.0, min=5.0, max=600.0,
+        Field("pump_flow", "Pump flow", "flow", 100.0, min=0.1, max=5000.0, binds="pump_flow"),
+        Field("suction_bore", "Suction line bore", "length", 50.0, min=5.0, max=600.0,
+              binds="suction_bore",
               help="Inside diameter of the narrowest part of the suction line."),
-        Field("length", "Suction line length", "length_m", 1.5, min=0.0, max=100.0),
+        Field("suction_length", "Suction line length", "length_m", 1.5, min=0.0, max=100.0,
+              binds="suction_length"),
         Field("roughness", "Wall roughness", "length", 0.045, min=0.0, max=5.0,
               help="About 0.045 mm for commercial steel pipe, 0.0015 mm for drawn tube "
                    "(from memory of the Moody chart's table)."),
-        Field("head", "Oil level above pump inlet", "length_m", 0.3, min=-10.0, max=30.0,
+        Field("suction_head", "Oil level above pump inlet", "length_m", 0.3, min=-10.0,
+              max=30.0, binds="suction_head",
               help="Lowest working oil level minus inlet height; negative when the pump sits "
                    "above the oil and has to lift it."),
-        Field("entry", "Where the line leaves the tank", "choice", "sharp",
+        Field("entry", "Where the line leaves the tank", "choice", "sharp", binds="entry",
               choices=ENTRY_CHOICES),
         _count("elbows_90", "90° elbows (standard, screwed)", 2.0),
         _count("bends_90", "90° bends (long radius)", 0.0),
         _count("elbows_45", "45° elbows", 0.0),
         _count("tees", "Tees, flow through the branch", 0.0),
-        Field("valve", "Valve in the line", "choice", "none", choices=VALVE_CHOICES,
+        Field("suction_valve", "Valve in the line", "choice", "none", choices=VALVE_CHOICES,
+              binds="suction_valve",
               help="A suction valve must be locked open or interlocked with the pump."),
         Field("strainer", "Strainer drop, clean, warm", _P, 0.05, min=0.0, max=2.0,
+              binds="strainer",
               help="The strainer's pressure drop at this flow at the operating temperature; "
                    "0 if there is none."),
         Field("strainer_model", "Strainer drop when cold", "choice", "viscous",
               choices=STRAINER_CHOICES),
         Field("bypass", "Strainer bypass", "choice", "yes", choices=BYPASS_CHOICES,
+              binds="strainer_bypass",
               help="Most suction strainers have one (common practice); check the strainer."),
         Field("bypass_opens", "Bypass opens at", _P, BYPASS_OPENS_BAR, min=0.01, max=2.0,
+              binds="bypass_opens",
               help="About 0.2 bar (3 psi) is usual (common practice, from memory); the "
                    "strainer's data takes precedence."),
-        Field("kv40", "Oil viscosity at 40 °C", _KV, 46.0, min=0.5, max=1.0e5),
-        Field("kv100", "Oil viscosity at 100 °C", _KV, 6.8, min=0.5, max=1.0e4),
-        Field("density", "Oil density", "density", 870.0, min=600.0, max=1300.0,
+        Field("kv40", "Oil viscosity at 40 °C", _KV, 46.0, min=0.5, max=1.0e5, binds="kv40_new"),
+        Field("kv100", "Oil viscosity at 100 °C", _KV, 6.8, min=0.5, max=1.0e4,
+              binds="kv100_new"),
+        Field("density", "Oil density", "density", 870.0, min=600.0, max=1300.0, binds="density",
               help="About 850 to 890 kg/m³ for mineral hydraulic oil (from memory)."),
-        Field("temp", "Operating oil temperature", _T, 50.0, min=-40.0, max=150.0),
-        Field("temp_cold", "Cold start oil temperature", _T, 0.0, min=-40.0, max=150.0),
+        Field("temp_running", "Operating oil temperature", _T, 50.0, min=-40.0, max=150.0,
+              binds="temp_running"),
+        Field("temp_cold", "Cold start oil temperature", _T, 0.0, min=-40.0, max=150.0,
+              binds="temp_cold_start"),
         Field("atmosphere", "Atmospheric pressure (absolute)", _PA, ATMOSPHERE_ROUNDED_BAR,
               min=0.5, max=1.1, help="1.013 bar at sea level; about 0.9 bar at 1000 m."),
-        Field("p_min", "Pump minimum inlet pressure (absolute)", _PA, P_MIN_BAR, min=0.1,
+        Field("pump_min_inlet", "Pump minimum inlet pressure (absolute)", _PA, P_MIN_BAR,
+              min=0.1, binds="pump_min_inlet",
               max=5.0,
               help="From the pump's data sheet; 0.8 bar absolute is typical (common practice)."),
     ),
@@ -172,17 +183,24 @@ def _count(key: str, label: str, default: float) -> Field:
                "The oil temperature at which the inlet pressure falls to the pump's minimum.",
                headline=True),
     ),
+    renamed={"flow": "pump_flow", "bore": "suction_bore", "length": "suction_length",
+             "head": "suction_head", "valve": "suction_valve", "temp": "temp_running",
+             "p_min": "pump_min_inlet"},
     retired={"k_sum": "the fittings are now described by kind and count (entry, elbows_90, "
                       "bends_90, elbows_45, tees, valve), so their losses can grow in cold, "
                       "laminar flow",
              "strainer_bypass": "use bypass=yes or no, and bypass_opens for its pressure"},
 )
-def suction_check(flow: float, bore: float, length: float, roughness: float, head: float,
-                  entry: str, elbows_90: float, bends_90: float, elbows_45: float, tees: float,
-                  valve: str, strainer: float, strainer_model: str, bypass: str,
-                  bypass_opens: float, kv40: float, kv100: float, density: float, temp: float,
-                  temp_cold: float, atmosphere: float, p_min: float) -> Result:
+def suction_check(pump_flow: float, suction_bore: float, suction_length: float,
+                  roughness: float, suction_head: float, entry: str, elbows_90: float,
+                  bends_90: float, elbows_45: float, tees: float, suction_valve: str,
+                  strainer: float, strainer_model: str, bypass: str, bypass_opens: float,
+                  kv40: float, kv100: float, density: float, temp_running: float,
+                  temp_cold: float, atmosphere: float, pump_min_inlet: float) -> Result:
     """Inlet pressure warm and cold on the oil's D341 line, and where the pump starts to starve."""
+    flow, bore, length, head, valve = (pump_flow, suction_bore, suction_length, suction_head,
+                                       suction_valve)
+    temp, p_min = temp_running, pump_min_inlet
     check_two_points(40.0, kv40, 100.0, kv100)
     if temp_cold >= temp:
         raise InputError("temp_cold", "the cold start temperature must be lower than the "
@@ -199,7 +217,7 @@ def suction_check(flow: float, bore: float, length: float, roughness: float, hea
         (fit.Fitting(1, *VALVES[valve]),) if valve in VALVES else ())
     a, b = walther_fit(40.0, kv40, 100.0, kv100)
     kv, kv_cold = viscosity_on_line(temp, a, b), viscosity_on_line(temp_cold, a, b)
-    for key, t, kv_t in (("temp", temp, kv), ("temp_cold", temp_cold, kv_cold)):
+    for key, t, kv_t in (("temp_running", temp, kv), ("temp_cold", temp_cold, kv_cold)):
         if kv_t is None:
             raise InputError(key, "at {temp} this oil's viscosity line runs off any scale: check "
                                   "the two viscosities", temp=Q(t, _T))

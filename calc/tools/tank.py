@@ -16,26 +16,28 @@ SHAPE_CHOICES = (("rectangular", "Rectangular"), ("vertical", "Vertical cylinder
 
 
 def shape_fields() -> tuple[Field, ...]:
-    """The tank's shape, inside dimensions and oil level: shared by the tank tools."""
+    """The tank's shape and inside dimensions: shared by the tank tools, taken from the card."""
     dim = dict(min=50.0, max=20000.0)
     return (
-        Field("shape", "Tank shape", "choice", "rectangular", choices=SHAPE_CHOICES),
-        Field("length", "Inside length", "length", 1200.0, **dim,
+        Field("shape", "Tank shape", "choice", "rectangular", choices=SHAPE_CHOICES,
+              binds="tank_shape"),
+        Field("length", "Inside length", "length", 1200.0, **dim, binds="tank_length",
               help="Rectangular tank or horizontal cylinder."),
-        Field("width", "Inside width", "length", 800.0, **dim, help="Rectangular tank only."),
-        Field("height", "Inside height", "length", 700.0, **dim,
+        Field("width", "Inside width", "length", 800.0, **dim, binds="tank_width",
+              help="Rectangular tank only."),
+        Field("height", "Inside height", "length", 700.0, **dim, binds="tank_height",
               help="Rectangular tank or vertical cylinder."),
-        Field("diameter", "Inside diameter", "length", 800.0, **dim, help="Cylinders only."),
-        Field("level", "Oil level from the bottom", "length", 550.0, min=0.0, max=20000.0,
-              help="Measured inside, from the bottom of the tank to the oil surface."),
+        Field("diameter", "Inside diameter", "length", 800.0, **dim, binds="tank_diameter",
+              help="Cylinders only."),
     )
 
 
-def check_level(shape: str, height_mm: float, diameter_mm: float, level_mm: float) -> float:
-    """The tank's depth [mm]; InputError on `level` when the oil would stand above it."""
+def check_level(shape: str, height_mm: float, diameter_mm: float, level_mm: float,
+                key: str = "level") -> float:
+    """The tank's depth [mm]; InputError on `key` when the oil would stand above it."""
     depth = depth_mm(shape, height_mm, diameter_mm)
     if level_mm > depth:
-        raise InputError("level", "the level ({level}) cannot be above the tank's diameter "
+        raise InputError(key, "the level ({level}) cannot be above the tank's diameter "
                                   "({depth})" if shape == "horizontal" else
                          "the level ({level}) cannot be above the tank's inside height ({depth})",
                          level=Q(level_mm, "length"), depth=Q(depth, "length"))
@@ -70,6 +72,8 @@ AIR_SPACE_BANDS = (
             "how full it is and the air space above the oil.",
     topic=TANK,
     inputs=shape_fields() + (
+        Field("level", "Oil level from the bottom", "length", 550.0, min=0.0, max=20000.0,
+              help="Measured inside, from the bottom of the tank to the oil surface."),
         Field("volume", "Oil volume (to find its level)", _V, None, min=0.0, max=1.0e7,
               optional=True, help="Leave blank to compute the volume at the level above; enter a "
                                   "volume to find the level it stands at."),
@@ -167,15 +171,22 @@ LEVEL_NEEDED_BANDS = (
     summary="The tank against the pump's flow (minutes of flow) and the time the oil stays in "
             "it against its air-release time, at the working level and at the low level.",
     topic=TANK,
+    renamed={"flow": "pump_flow"},
+    retired={"working_level": "give the oil at the working level as oil_volume (the "
+                              "tank-volume tool turns a level into a volume)",
+             "low_level": "give the oil at the lowest level as low_oil_volume"},
     inputs=(
         Field("tank_volume", "Full tank volume", _V, 400.0, min=1.0, max=1.0e6,
+              binds="tank_volume",
               help="The tank-volume tool gives it from the dimensions."),
-        Field("flow", "Pump flow", "flow", 100.0, min=0.1, max=1.0e5,
+        Field("pump_flow", "Pump flow", "flow", 100.0, min=0.1, max=1.0e5, binds="pump_flow",
               help="Flow actually delivered, e.g. displacement x speed x volumetric efficiency."),
-        Field("application", "Machine", "choice", "industrial", choices=APPLICATION_CHOICES),
-        Field("working_level", "Working level, % of full volume", _PCT, 80.0, min=1.0, max=100.0),
-        Field("low_level", "Lowest level in the cycle, % of full volume", _PCT, None, min=1.0,
-              max=100.0, optional=True,
+        Field("application", "Machine", "choice", "industrial", choices=APPLICATION_CHOICES,
+              binds="application"),
+        Field("oil_volume", "Oil at the working level", _V, 320.0, min=1.0, max=1.0e6,
+              binds="oil_volume", help="The tank-volume tool turns a level into a volume."),
+        Field("low_oil_volume", "Oil at the lowest level in the cycle", _V, None, min=1.0,
+              max=1.0e6, optional=True, binds="low_oil_volume",
               help="With cylinders extended and accumulators charged; blank if it stays put."),
         Field("air_release", "Air-release time of the oil", _MIN, 5.0, min=0.1, max=120.0,
               help="ISO 9120 / ASTM D3427 result, usually at 50 °C, from the data sheet or a "
@@ -184,7 +195,8 @@ LEVEL_NEEDED_BANDS = (
               choices=(("yes", "Yes"), ("no", "No or not known"))),
     ),
     outputs=(
-        Output("oil_volume", "Oil at the working level", _V),
+        Output("working_share", "Working level, share of the full volume", _PCT,
+               at_least=0.0, at_most=100.0),
         Output("flow_minutes", "Tank volume in minutes of pump flow", _MIN, headline=True),
         Output("practice", "Common practice", "text"),
         Output("dwell", "Dwell time at the working level", _MIN, headline=True),
@@ -198,21 +210,28 @@ LEVEL_NEEDED_BANDS = (
                "of flow at the working level."),
     ),
 )
-def tank_sizing(tank_volume: float, flow: float, application: str, working_level: float,
-                air_release: float, baffle: str, low_level: float | None = None) -> Result:
+def tank_sizing(tank_volume: float, pump_flow: float, application: str, oil_volume: float,
+                air_release: float, baffle: str, low_oil_volume: float | None = None) -> Result:
     """Tank minutes of flow and dwell time against common practice and the air-release time."""
-    if low_level is not None and low_level > working_level:
-        raise InputError("low_level", "the lowest level must be at or below the working level")
+    if oil_volume > tank_volume:
+        raise InputError("oil_volume", "the oil at the working level cannot be more than the "
+                                       "full tank ({full})", full=Q(tank_volume, _V))
+    if low_oil_volume is not None and low_oil_volume > oil_volume:
+        raise InputError("low_oil_volume", "the oil at the lowest level must be at most the oil "
+                                           "at the working level")
+    flow, oil = pump_flow, oil_volume
+    working_level = 100.0 * oil / tank_volume
+    low_level = None if low_oil_volume is None else 100.0 * low_oil_volume / tank_volume
     lo_min, hi_min = FLOW_MINUTES[application]
     fill = working_level / 100.0
-    oil = tank_volume * working_level / 100.0
     dwell = dwell_minutes(oil, flow)
     ratio = dwell / air_release
     level_needed = 100.0 * DWELL_OK_RATIO * air_release * flow / tank_volume
     flow_minutes = dwell_minutes(tank_volume, flow)
     needed = max(tank_volume_needed_l(flow, lo_min, 1.0),
                  tank_volume_needed_l(flow, DWELL_OK_RATIO * air_release, fill))
-    values = {"oil_volume": oil, "flow_minutes": flow_minutes, "dwell": dwell, "dwell_ratio": ratio,
+    values = {"working_share": working_level, "flow_minutes": flow_minutes, "dwell": dwell,
+              "dwell_ratio": ratio,
               "practice": f"{lo_min:g} to {hi_min:g} min of pump flow ({application}, "
                           "common practice)",
               "low_dwell": None, "low_ratio": None,
@@ -223,7 +242,7 @@ def tank_sizing(tank_volume: float, flow: float, application: str, working_level
                  low=Q(lo_min, _MIN), high=Q(hi_min, _MIN), needed=Q(needed, _V))
     _grade_dwell(result, "working level", dwell, air_release)
     if low_level is not None:
-        low_dwell = dwell_minutes(tank_volume * low_level / 100.0, flow)
+        low_dwell = dwell_minutes(low_oil_volume, flow)
         values.update(low_dwell=low_dwell, low_ratio=low_dwell / air_release)
         if low_level < working_level:
             _grade_dwell(result, "low level", low_dwell, air_release)

@@ -165,20 +165,21 @@ def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
     return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-d341")
 
 
-def _kv_field(key: str, label: str, default: float, help_text: str) -> Field:
-    return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text)
+def _kv_field(key: str, label: str, default: float, help_text: str, binds: str) -> Field:
+    return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text,
+                 binds=binds)
 
 
 def pump_limit_field(key: str, label: str) -> Field:
-    """An optional pump limit [cSt]: blank takes the pump type's preset."""
-    return Field(key, label, _KV, None, min=1.0, max=1.0e5, optional=True,
+    """An optional pump limit [cSt]: blank takes the pump type's preset (or the card's)."""
+    return Field(key, label, _KV, None, min=1.0, max=1.0e5, optional=True, binds=key,
                  help="Leave blank to use the pump type's typical figure; enter the pump "
                       "maker's figure when you have it.")
 
 
 # The pump type and its four limits, as every tool that checks an oil against a pump asks them.
 PUMP_FIELDS = (
-    Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES),
+    Field("pump", "Pump type", "choice", "vane", choices=PUMP_CHOICES, binds="pump_type"),
     pump_limit_field("visc_start", "Max viscosity at start-up"),
     pump_limit_field("visc_opt_high", "Optimum band, top"),
     pump_limit_field("visc_opt_low", "Optimum band, bottom"),
@@ -211,17 +212,19 @@ def note_preset_limits(result: Result, *limits: float | None) -> None:
     topic=VISCOSITY,
     inputs=(
         Field("oil_from", "Oil given by", "choice", "readings", choices=OIL_FROM),
-        _kv_field("kv40", "Viscosity, reading 1", 46.0, "Usually the KV at 40 °C from the "
+        _kv_field("kv40", "Viscosity, reading 1", 46.0, binds="kv40_new", help_text="Usually "
+                  "the KV at 40 °C from the "
                   "data sheet or lab report."),
         Field("temp1", "Temperature of reading 1", _T, 40.0, min=-60.0, max=250.0),
-        _kv_field("kv100", "Viscosity, reading 2", 6.8, "Usually the KV at 100 °C."),
+        _kv_field("kv100", "Viscosity, reading 2", 6.8, "Usually the KV at 100 °C.",
+                  binds="kv100_new"),
         Field("temp2", "Temperature of reading 2", _T, 100.0, min=-60.0, max=250.0),
-        Field("grade", "ISO VG grade", "choice", "VG 46", choices=GRADE_CHOICES,
+        Field("grade", "ISO VG grade", "choice", "VG 46", choices=GRADE_CHOICES, binds="grade",
               help="Used when the oil is given by grade and VI: its KV at 40 °C is the "
                    "grade's mid-point."),
-        Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0,
+        Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0, binds="vi",
               help="Used with the grade; from the oil's data sheet."),
-        Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0,
+        Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0, tracks="oil_temp",
               help="Measured in the tank or at the pump inlet."),
         *PUMP_FIELDS,
     ),

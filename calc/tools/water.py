@@ -115,20 +115,29 @@ def reading_fields() -> tuple[Field, ...]:
         Field("ppm", "Lab water content", _PPM, 150.0, min=0.0, max=100000.0,
               help="Used when the reading is from a lab report, ppm by mass."),
         Field("temp", "Oil temperature at the reading", _T, 50.0, min=-40.0, max=150.0,
+              tracks="oil_temp",
               help="The sensor's own temperature reading, or the tank temperature."),
         Field("temp_cold", "Coldest oil temperature", _T, 15.0, min=-40.0, max=150.0,
+              binds="temp_cold_start",
               help="The coldest the oil gets: overnight, cooled to the room, or a cold start."),
     )
 
 
 def oil_fields() -> tuple[Field, ...]:
-    def cal(key: str, label: str, quantity: str, low: float, high: float) -> Field:
-        return Field(key, label, quantity, None, min=low, max=high, optional=True,
-                     help="Only for an own calibration, from a lab or the oil's data sheet.")
     return (
-        Field("oil", "Oil", "choice", "mineral-aw", choices=OIL_CHOICES,
+        Field("oil", "Oil", "choice", "mineral-aw", choices=OIL_CHOICES, binds="oil_family",
               help="Presets are typical figures from memory; an own calibration from the "
                    "oil's data sheet or a lab is better."),
+    ) + calibration_fields()
+
+
+def calibration_fields() -> tuple[Field, ...]:
+    """The two points of an own saturation calibration (CALIBRATION_KEYS), bound to the
+    machine card's."""
+    def cal(key: str, label: str, quantity: str, low: float, high: float) -> Field:
+        return Field(key, label, quantity, None, min=low, max=high, optional=True, binds=key,
+                     help="Only for an own calibration, from a lab or the oil's data sheet.")
+    return (
         cal("cal_temp1", "Calibration point 1: temperature", _T, -40.0, 150.0),
         cal("cal_ppm1", "Calibration point 1: saturation", _PPM, 1.0, 100000.0),
         cal("cal_temp2", "Calibration point 2: temperature", _T, -40.0, 150.0),
@@ -138,8 +147,9 @@ def oil_fields() -> tuple[Field, ...]:
 
 def tank_fields() -> tuple[Field, ...]:
     return (
-        Field("volume", "Oil in the tank", "volume", 200.0, min=1.0, max=1.0e6),
-        Field("density", "Oil density", "density", 870.0, min=600.0, max=1500.0,
+        Field("oil_volume", "Oil in the tank", "volume", 200.0, min=1.0, max=1.0e6,
+              binds="oil_volume"),
+        Field("density", "Oil density", "density", 870.0, min=600.0, max=1500.0, binds="density",
               help="As on the data sheet; mineral hydraulic oil is typically 870 kg/m³ "
                    "(54.3 lb/ft³), esters about 920 kg/m³ (57.4 lb/ft³)."),
     )
@@ -152,6 +162,7 @@ def tank_fields() -> tuple[Field, ...]:
             "when the oil cools, the temperature at which free water drops out, and the water "
             "in the tank.",
     topic=WATER,
+    renamed={"volume": "oil_volume"},
     inputs=reading_fields() + oil_fields() + tank_fields(),
     outputs=(
         Output("ppm", "Water content", _PPM, headline=True, tracks="water_ppm"),
@@ -170,7 +181,7 @@ def tank_fields() -> tuple[Field, ...]:
     ),
 )
 def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: float, oil: str,
-                 volume: float, density: float, cal_temp1: float | None = None,
+                 oil_volume: float, density: float, cal_temp1: float | None = None,
                  cal_ppm1: float | None = None, cal_temp2: float | None = None,
                  cal_ppm2: float | None = None) -> Result:
     """Where the water in the oil is now and at the coldest temperature, and how much there is."""
@@ -191,9 +202,9 @@ def water_in_oil(reading: str, rh: float, ppm: float, temp: float, temp_cold: fl
         "rh_cold": 100.0 * min(content, sat_cold) / sat_cold,
         "sat_cold": sat_cold,
         "free_cold_ppm": free_cold,
-        "water_ml": water_volume_ml(content, volume, density),
-        "free_ml": water_volume_ml(free, volume, density),
-        "free_cold_ml": water_volume_ml(free_cold, volume, density),
+        "water_ml": water_volume_ml(content, oil_volume, density),
+        "free_ml": water_volume_ml(free, oil_volume, density),
+        "free_cold_ml": water_volume_ml(free_cold, oil_volume, density),
         "line": line.describe(),
     })
     if not result.grade(free, FREE_NOW_BANDS, COMMON_PRACTICE, temp=Q(temp, _T),

@@ -11,7 +11,7 @@ from calc.tools.blend import viscosity_blend
 from calc.kernel.errors import InputError
 
 DEFAULTS = dict(mode="mix", kv1=46.0, amount1=80.0, kv2=68.0, amount2=20.0, basis="volume",
-                grade="main", tank_l=200.0, target=50.0)
+                grade="main", oil_volume=200.0, target_kv=50.0)
 
 
 def test_blending_number_by_hand():
@@ -77,7 +77,7 @@ def test_drain_and_fill_ends_with_a_full_tank_at_the_share():
 
 
 def test_tool_top_up_reaches_the_target():
-    result = viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target": 55.0})
+    result = viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target_kv": 55.0})
     v = result.values
     assert blend_viscosity([46.0, 68.0], [200.0, v["top_up"]]) == pytest.approx(55.0, rel=1e-9)
     assert v["drain"] == 0.0
@@ -85,7 +85,7 @@ def test_tool_top_up_reaches_the_target():
 
 
 def test_tool_top_up_that_does_not_fit_says_how_much_to_drain():
-    result = viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target": 60.0, "capacity_l": 220.0})
+    result = viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target_kv": 60.0, "tank_volume": 220.0})
     v = result.values
     assert v["drain"] > 0
     assert 200.0 - v["drain"] + v["top_up"] == pytest.approx(220.0)
@@ -96,13 +96,13 @@ def test_tool_top_up_that_does_not_fit_says_how_much_to_drain():
 @pytest.mark.parametrize("target", [40.0, 70.0, 68.0])
 def test_target_outside_the_two_oils_is_refused(target):
     with pytest.raises(InputError) as err:
-        viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target": target})
-    assert err.value.field == "target"
+        viscosity_blend(**{**DEFAULTS, "mode": "top_up", "target_kv": target})
+    assert err.value.field == "target_kv"
 
 
 def test_same_oil_cannot_reach_a_target():
     with pytest.raises(InputError) as err:
-        viscosity_blend(**{**DEFAULTS, "mode": "top_up", "kv2": 46.0, "target": 46.0})
+        viscosity_blend(**{**DEFAULTS, "mode": "top_up", "kv2": 46.0, "target_kv": 46.0})
     assert err.value.field == "kv2"
 
 
@@ -142,7 +142,7 @@ def test_four_parts_and_blank_parts():
 
 
 def test_bridge_top_up_in_us_gallons():
-    metric = bridge.run("viscosity-blend", {"mode": "top_up", "tank_l": 378.5411784, "target": 55})
-    us = bridge.run("viscosity-blend", {"mode": "top_up", "tank_l": 100, "target": 55}, "us")
+    metric = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 378.5411784, "target_kv": 55})
+    us = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 100, "target_kv": 55}, "us")
     assert us["units"]["top_up"] == "US gal"
     assert us["values"]["top_up"] * 3.785411784 == pytest.approx(metric["values"]["top_up"])

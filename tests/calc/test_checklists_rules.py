@@ -81,7 +81,7 @@ def test_cooler_that_barely_cools_hot_oil():
 
 
 def test_working_cooler_and_hot_room_point_to_the_surroundings():
-    result = checklist_overheating(temp=62.0, cooler_in=62.0, cooler_out=55.0, ambient=45.0)
+    result = checklist_overheating(temp=62.0, cooler_in=62.0, cooler_out=55.0, air_temp=45.0)
     assert _order(result)[0] == "hot-surroundings"
     assert _order(result)[-1] == "cooler"  # 7 K drop: AGAINST
 

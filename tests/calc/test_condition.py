@@ -10,7 +10,7 @@ from calc.kernel.errors import InputError
 
 
 def _check(**kw):
-    args = dict(kv40_new=46.0, kv40=46.0)
+    args = dict(kv40_new=46.0, kv40_now=46.0)
     args.update(kw)
     return oil_condition(**args)
 
@@ -33,7 +33,7 @@ def test_viscosity_change_definition():
     (41.4, "act"), (41.5, "watch"),
 ])
 def test_viscosity_boundaries(kv40, level):
-    assert _level_of(_check(kv40=kv40), "Viscosity") == level
+    assert _level_of(_check(kv40_now=kv40), "Viscosity") == level
 
 
 @pytest.mark.parametrize("an_now, level", [
@@ -73,7 +73,7 @@ def test_cleanliness_against_target(code, level):
 
 
 def test_worst_level_wins_and_comes_first():
-    result = _check(kv40=48.3, ppm=100.0, reserve=20.0, an_new=0.3, an_now=0.4)
+    result = _check(kv40_now=48.3, ppm=100.0, reserve=20.0, an_new=0.3, an_now=0.4)
     assert result.values["level"] == "act" == result.level
     assert [v.level for v in result.verdicts] == ["act", "watch", "ok", "ok"]
     assert result.values["findings"] == "2"
@@ -97,10 +97,14 @@ def test_half_pairs_are_refused_naming_the_missing_field():
     with pytest.raises(InputError) as err:
         _check(code6=16.0, code14=13.0)
     assert err.value.field == "target6"
+    # The facts alone (a machine card fills them in every reading) are no reading: accepted,
+    # and nothing is graded for them.
+    alone = _check(an_new=0.4, target4=18.0, target6=16.0, target14=13.0)
+    assert alone.values["an_rise"] is None and alone.values["excess"] is None
 
 
 def test_bridge_with_a_lab_report():
-    answer = bridge.run("oil-condition", {"kv40_new": 46, "kv40": "44,1", "ppm": 650,
+    answer = bridge.run("oil-condition", {"kv40_new": 46, "kv40_now": "44,1", "ppm": 650,
                                           "code4": 20, "code6": 18, "code14": 15,
                                           "target4": 18, "target6": 16, "target14": 13})
     assert answer["ok"] and answer["level"] == "act"

@@ -11,8 +11,8 @@ from calc.tools.water import saturation_line
 
 
 def _run(**inputs):
-    defaults = dict(reading="ppm", rh=30.0, ppm=400.0, temp=50.0, temp_cold=15.0, flow=20.0,
-                    efficiency=40.0, volume=1000.0, density=870.0, oil="mineral-aw")
+    defaults = dict(reading="ppm", rh=30.0, ppm=400.0, temp=50.0, temp_cold=15.0, dryer_flow=20.0,
+                    dryer_efficiency=40.0, oil_volume=1000.0, density=870.0, oil="mineral-aw")
     return water_drying(**{**defaults, **inputs})
 
 
@@ -77,5 +77,5 @@ def test_target_above_cold_saturation_is_act():
 
 
 def test_bridge_names_bad_efficiency():
-    answer = bridge.run("water-drying", {"efficiency": "0"})
-    assert not answer["ok"] and answer["errors"][0]["field"] == "efficiency"
+    answer = bridge.run("water-drying", {"dryer_efficiency": "0"})
+    assert not answer["ok"] and answer["errors"][0]["field"] == "dryer_efficiency"

@@ -144,7 +144,7 @@ def test_all_grades_include_undefined_thin_ones_with_a_reason():
 def test_reading_elsewhere_too_thin_for_its_vi_names_the_reading():
     # 1 cSt at 60 degC traces back to a KV40 below H = 6.394 cSt at KV100 2 cSt (D2270
     # Table 1): no VI 100 oil reads that, and the reading is named.
-    answer = bridge.run("viscosity-grade", {"kv": 1.0, "temp": 60})
+    answer = bridge.run("viscosity-grade", {"kv": 1.0, "kv_temp": 60})
     assert not answer["ok"] and answer["errors"][0]["field"] == "kv"
 
 

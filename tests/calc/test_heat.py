@@ -13,10 +13,10 @@ from calc.methods.heat import (heat_capacity_kj_per_k, heat_load_from_power_kw,
                                tank_surfaces, time_to_temperature_min)
 from calc.tools.heat import tank_heat
 
-DEFAULTS = dict(load_from="power", power=7.5, efficiency=80.0, flow=60.0, dp=150.0,
+DEFAULTS = dict(load_from="power", power=7.5, efficiency=80.0, throttle_flow=60.0, dp=150.0,
                 shape="rectangular", length=1200.0, width=800.0, height=700.0, diameter=800.0,
-                level=550.0, surfaces="wetted", emissivity=0.9, wall=3.0, ambient=25.0,
-                target=55.0)
+                working_level=550.0, surfaces="wetted", emissivity=0.9, wall=3.0, ambient=25.0,
+                target_temp=55.0)
 
 
 def run(**changes):
@@ -102,7 +102,7 @@ def test_warmup_agrees_with_direct_time_stepping():
 
 
 def test_no_cooler_needed_when_the_tank_sheds_enough():
-    result = run(power=2.0, target=60.0)
+    result = run(power=2.0, target_temp=60.0)
     assert result.values["steady"] < 60.0
     assert result.values["cooler"] == 0.0
     assert result.values["time_to_target"] is None  # the tank alone never gets there
@@ -111,14 +111,14 @@ def test_no_cooler_needed_when_the_tank_sheds_enough():
 
 
 def test_unreachable_load_has_no_steady_temperature():
-    result = run(load_from="throttle", flow=200.0, dp=300.0)  # 100 kW into a 2 m^2 tank
+    result = run(load_from="throttle", throttle_flow=200.0, dp=300.0)  # 100 kW into a 2 m^2 tank
     assert result.values["steady"] is None
     assert result.values["time_to_target"] > 0.0
     assert result.level == "act"
 
 
 def test_hot_running_tank_warns_of_burns():
-    result = run(target=90.0)  # steady about 80 degC, under the target: runs that hot
+    result = run(target_temp=90.0)  # steady about 80 degC, under the target: runs that hot
     assert any("burn" in v.message.template for v in result.verdicts)
 
 
@@ -131,9 +131,9 @@ def test_film_temperature_properties_are_used():
     assert air_properties(40.0)[0] > air_properties(25.0)[0]
 
 
-@pytest.mark.parametrize("changes, field", [({"target": 20.0}, "target"),
-                                            ({"level": 0.0}, "level"),
-                                            ({"level": 800.0}, "level")])
+@pytest.mark.parametrize("changes, field", [({"target_temp": 20.0}, "target_temp"),
+                                            ({"working_level": 0.0}, "working_level"),
+                                            ({"working_level": 800.0}, "working_level")])
 def test_bad_inputs_name_the_field(changes, field):
     with pytest.raises(InputError) as err:
         run(**changes)

@@ -82,13 +82,13 @@ def test_tool_flags_a_fast_suction_line():
 
 
 def test_tool_target_velocity_sizes_the_bore():
-    result = velocity_in_line(100.0, 25.0, "pressure", 160.0, target=3.0)
+    result = velocity_in_line(100.0, 25.0, "pressure", 160.0, target_velocity=3.0)
     assert line_velocity(100.0, result.values["bore_needed"]) == pytest.approx(3.0)
     assert result.values["hose_bore"] >= result.values["bore_needed"]
 
 
 def test_bridge_us_units():
-    us = bridge.run("line-velocity", {"flow": 40, "bore": 1.0, "line": "return"}, "us")
+    us = bridge.run("line-velocity", {"line_flow": 40, "bore": 1.0, "line": "return"}, "us")
     # By hand: 40 gpm in a 1 in bore = 4.980 m/s = 16.34 ft/s.
     assert us["values"]["velocity"] == pytest.approx(16.34, abs=0.01)
     assert us["units"]["bore_needed"] == "in"

@@ -12,11 +12,13 @@ from calc.methods.suction import (inlet_pressure_bar, static_head_bar, starving_
 from calc.tools.suction import suction_check
 from calc.methods.viscosity import walther_fit, walther_viscosity
 
-DEFAULTS = dict(flow=100.0, bore=50.0, length=1.5, roughness=0.045, head=0.3, entry="sharp",
-                elbows_90=2.0, bends_90=0.0, elbows_45=0.0, tees=0.0, valve="none",
+DEFAULTS = dict(pump_flow=100.0, suction_bore=50.0, suction_length=1.5, roughness=0.045,
+                suction_head=0.3, entry="sharp",
+                elbows_90=2.0, bends_90=0.0, elbows_45=0.0, tees=0.0, suction_valve="none",
                 strainer=0.05, strainer_model="viscous", bypass="no", bypass_opens=0.2,
-                kv40=46.0, kv100=6.8, density=870.0, temp=50.0, temp_cold=0.0, atmosphere=1.013,
-                p_min=0.8)
+                kv40=46.0, kv100=6.8, density=870.0, temp_running=50.0, temp_cold=0.0,
+                atmosphere=1.013,
+                pump_min_inlet=0.8)
 
 
 def run(**changes):
@@ -41,7 +43,7 @@ def test_laminar_inlet_pressure_by_hand():
 
 def test_viscosity_comes_from_calc_viscosity():
     # The tool must use ASTM D341 from calc.methods.viscosity, not a copy of its own.
-    result = run(kv40=68.0, kv100=8.7, temp=55.0, temp_cold=-5.0)
+    result = run(kv40=68.0, kv100=8.7, temp_running=55.0, temp_cold=-5.0)
     a, b = walther_fit(40.0, 68.0, 100.0, 8.7)
     assert result.values["kv"] == walther_viscosity(55.0, a, b)
     assert result.values["kv_cold"] == walther_viscosity(-5.0, a, b)
@@ -49,15 +51,16 @@ def test_viscosity_comes_from_calc_viscosity():
 
 def test_starving_temperature_gives_the_minimum_inlet_pressure():
     # Definition: at t_starve the inlet pressure equals the pump's minimum (to 1e-3 bar).
-    for changes in ({}, {"head": -0.8, "bore": 38.0, "length": 3.0}, {"strainer": 0.0},
-                    {"strainer_model": "constant", "elbows_90": 5.0, "valve": "butterfly",
-                     "flow": 180.0},
-                    {"p_min": 0.9, "kv40": 100.0, "kv100": 11.0}):
+    for changes in ({}, {"suction_head": -0.8, "suction_bore": 38.0, "suction_length": 3.0},
+                    {"strainer": 0.0},
+                    {"strainer_model": "constant", "elbows_90": 5.0, "suction_valve": "butterfly",
+                     "pump_flow": 180.0},
+                    {"pump_min_inlet": 0.9, "kv40": 100.0, "kv100": 11.0}):
         result = run(**changes)
         t = result.values["t_starve"]
         assert t is not None, changes
         at_t = run(**changes, temp_cold=t)
-        assert at_t.values["p_inlet_cold"] == pytest.approx(changes.get("p_min", 0.8), abs=1e-3)
+        assert at_t.values["p_inlet_cold"] == pytest.approx(changes.get("pump_min_inlet", 0.8), abs=1e-3)
 
 
 def test_colder_is_worse():
@@ -77,14 +80,15 @@ def test_starving_verdict_and_the_fixes():
 
 
 def test_even_warm_starving_has_no_starving_temperature():
-    result = run(head=-3.0)
+    result = run(suction_head=-3.0)
     assert result.values["margin"] < 0
     assert result.values["t_starve"] is None
     assert result.verdicts[0].level == "act"
 
 
 def test_no_starving_in_range_with_a_big_flooded_line():
-    result = run(bore=100.0, head=3.0, strainer=0.0, length=0.5, elbows_90=0.0, entry="rounded")
+    result = run(suction_bore=100.0, suction_head=3.0, strainer=0.0, suction_length=0.5,
+                 elbows_90=0.0, entry="rounded")
     assert result.values["t_starve"] is None
     assert result.level == "ok"
 
@@ -112,7 +116,7 @@ def test_velocity_reported_matches_line_velocity():
 
 @pytest.mark.parametrize("changes, field", [({"temp_cold": 60.0}, "temp_cold"),
                                             ({"kv100": 50.0}, "kv100"),
-                                            ({"roughness": 3.0, "bore": 20.0}, "roughness")])
+                                            ({"roughness": 3.0, "suction_bore": 20.0}, "roughness")])
 def test_bad_combinations_name_the_field(changes, field):
     with pytest.raises(InputError) as err:
         run(**changes)

@@ -8,17 +8,17 @@ from hypothesis import assume, given, settings, strategies as st  # noqa: E402
 from calc.tools.suction import suction_check  # noqa: E402
 
 systems = st.fixed_dictionaries({
-    "flow": st.floats(min_value=5.0, max_value=400.0),
-    "bore": st.floats(min_value=15.0, max_value=120.0),
-    "length": st.floats(min_value=0.0, max_value=5.0),
+    "pump_flow": st.floats(min_value=5.0, max_value=400.0),
+    "suction_bore": st.floats(min_value=15.0, max_value=120.0),
+    "suction_length": st.floats(min_value=0.0, max_value=5.0),
     "roughness": st.sampled_from([0.0, 0.0015, 0.045]),
-    "head": st.floats(min_value=-2.0, max_value=2.0),
+    "suction_head": st.floats(min_value=-2.0, max_value=2.0),
     "entry": st.sampled_from(["sharp", "projecting", "rounded"]),
     "elbows_90": st.integers(min_value=0, max_value=4).map(float),
     "bends_90": st.integers(min_value=0, max_value=4).map(float),
     "elbows_45": st.integers(min_value=0, max_value=2).map(float),
     "tees": st.integers(min_value=0, max_value=1).map(float),
-    "valve": st.sampled_from(["none", "full_bore", "butterfly"]),
+    "suction_valve": st.sampled_from(["none", "full_bore", "butterfly"]),
     "strainer": st.floats(min_value=0.0, max_value=0.2),
     "strainer_model": st.sampled_from(["viscous", "constant"]),
     "bypass": st.sampled_from(["yes", "no"]),
@@ -26,10 +26,10 @@ systems = st.fixed_dictionaries({
     "kv40": st.sampled_from([22.0, 32.0, 46.0, 68.0, 100.0]),
     "kv100": st.just(None),
     "density": st.floats(min_value=820.0, max_value=1000.0),
-    "temp": st.floats(min_value=30.0, max_value=80.0),
+    "temp_running": st.floats(min_value=30.0, max_value=80.0),
     "temp_cold": st.floats(min_value=-30.0, max_value=25.0),
     "atmosphere": st.floats(min_value=0.85, max_value=1.05),
-    "p_min": st.floats(min_value=0.5, max_value=0.95),
+    "pump_min_inlet": st.floats(min_value=0.5, max_value=0.95),
 })
 
 
@@ -44,9 +44,9 @@ def test_starving_temperature_gives_the_minimum(inputs):
     # Definition: at t_starve the inlet pressure is the pump's minimum (to 1e-3 bar).
     inputs = _complete(inputs)
     t = suction_check(**inputs).values["t_starve"]
-    assume(t is not None and t < inputs["temp"] - 1e-3)
+    assume(t is not None and t < inputs["temp_running"] - 1e-3)
     at_t = suction_check(**{**inputs, "temp_cold": t})
-    assert at_t.values["p_inlet_cold"] == pytest.approx(inputs["p_min"], abs=1e-3)
+    assert at_t.values["p_inlet_cold"] == pytest.approx(inputs["pump_min_inlet"], abs=1e-3)
 
 
 @settings(max_examples=60, deadline=None)

@@ -57,7 +57,7 @@ def test_two_k_against_fluids(re, bore_mm):
 def test_cold_start_with_laminar_fittings():
     # The case of the engineering review: a sharp entry, two elbows and a gate valve at -5 degC
     # (strainer held constant) come to about 0.71 bar absolute, below the pump's 0.8: act.
-    answer = bridge.run("suction-check", {"entry": "sharp", "elbows_90": 2, "valve": "full_bore",
+    answer = bridge.run("suction-check", {"entry": "sharp", "elbows_90": 2, "suction_valve": "full_bore",
                                           "strainer_model": "constant", "temp_cold": -5})
     assert answer["ok"]
     assert answer["values"]["p_inlet_cold"] == pytest.approx(_inlet_by_fluids(-5.0), abs=1e-9)
@@ -71,7 +71,7 @@ def test_cold_start_with_laminar_fittings():
 
 
 def test_warm_inlet_against_fluids():
-    answer = bridge.run("suction-check", {"valve": "full_bore", "strainer_model": "constant"})
+    answer = bridge.run("suction-check", {"suction_valve": "full_bore", "strainer_model": "constant"})
     assert answer["values"]["p_inlet"] == pytest.approx(_inlet_by_fluids(50.0), abs=1e-9)
 
 

@@ -86,7 +86,7 @@ def test_volume_larger_than_the_tank_is_refused():
 
 
 def test_sizing_dwell_is_volume_over_flow():
-    v = tank_sizing(500.0, 100.0, "industrial", 80.0, 2.0, "yes", low_level=50.0).values
+    v = tank_sizing(500.0, 100.0, "industrial", 400.0, 2.0, "yes", low_oil_volume=250.0).values
     assert v["flow_minutes"] == pytest.approx(5.0)
     assert v["dwell"] == pytest.approx(4.0) and v["dwell_ratio"] == pytest.approx(2.0)
     assert v["low_dwell"] == pytest.approx(2.5) and v["low_ratio"] == pytest.approx(1.25)
@@ -94,44 +94,44 @@ def test_sizing_dwell_is_volume_over_flow():
 
 
 def test_sizing_well_sized_tank_is_ok():
-    result = tank_sizing(500.0, 100.0, "industrial", 80.0, 2.0, "yes")
+    result = tank_sizing(500.0, 100.0, "industrial", 400.0, 2.0, "yes")
     assert result.level == "ok"
 
 
 def test_mobile_range_is_smaller():
     # Common practice: a 1.5-minute tank is normal on a mobile machine, small on an industrial one.
-    mobile = tank_sizing(150.0, 100.0, "mobile", 90.0, 1.0, "yes")
-    industrial = tank_sizing(150.0, 100.0, "industrial", 90.0, 1.0, "yes")
+    mobile = tank_sizing(150.0, 100.0, "mobile", 135.0, 1.0, "yes")
+    industrial = tank_sizing(150.0, 100.0, "industrial", 135.0, 1.0, "yes")
     assert mobile.level == "ok"
     assert industrial.level == "watch"
     assert industrial.values["tank_needed"] == pytest.approx(300.0)  # 3 min x 100 L/min
 
 
 def test_low_level_raises_the_verdict_and_asks_to_keep_it_up():
-    result = tank_sizing(500.0, 100.0, "industrial", 80.0, 3.0, "yes", low_level=25.0)
+    result = tank_sizing(500.0, 100.0, "industrial", 400.0, 3.0, "yes", low_oil_volume=125.0)
     assert result.level == "act"  # 1.25 min against 3 min air release: under half
     messages = " ".join(v.message.render(lambda value, q: str(value)) for v in result.verdicts)
     assert "low level" in messages and "Keep the level above" in messages
 
 
 def test_too_small_even_full_names_a_bigger_tank():
-    result = tank_sizing(200.0, 100.0, "industrial", 80.0, 5.0, "yes")
+    result = tank_sizing(200.0, 100.0, "industrial", 160.0, 5.0, "yes")
     assert result.values["level_needed"] is None
     assert result.values["tank_needed"] == pytest.approx(625.0)  # 5 min x 100 / 0.8
     assert result.level == "act"
 
 
 def test_missing_baffle_is_flagged():
-    with_baffle = tank_sizing(500.0, 100.0, "industrial", 80.0, 2.0, "yes")
-    without = tank_sizing(500.0, 100.0, "industrial", 80.0, 2.0, "no")
+    with_baffle = tank_sizing(500.0, 100.0, "industrial", 400.0, 2.0, "yes")
+    without = tank_sizing(500.0, 100.0, "industrial", 400.0, 2.0, "no")
     assert len(without.verdicts) == len(with_baffle.verdicts) + 1
     assert without.level == "watch"
 
 
 def test_low_level_above_working_level_is_refused():
     with pytest.raises(InputError) as err:
-        tank_sizing(500.0, 100.0, "industrial", 60.0, 2.0, "yes", low_level=70.0)
-    assert err.value.field == "low_level"
+        tank_sizing(500.0, 100.0, "industrial", 300.0, 2.0, "yes", low_oil_volume=350.0)
+    assert err.value.field == "low_oil_volume"
 
 
 def test_a_brim_full_tank_is_not_a_level_to_keep():

@@ -36,8 +36,9 @@ def test_level_from_volume_holds_that_volume(shape, length, width, height, diame
 @given(st.floats(1.0, 1e6), st.floats(0.1, 1e5), st.floats(2.0, 100.0), st.floats(0.1, 120.0),
        st.floats(0.01, 1.0))
 def test_lower_level_never_lengthens_the_dwell(tank_l, flow, level, air_release, low_share):
-    v = tank_sizing(tank_l, flow, "industrial", level, air_release, "yes",
-                    low_level=max(1.0, level * low_share)).values
+    oil = tank_l * level / 100.0
+    v = tank_sizing(tank_l, flow, "industrial", oil, air_release, "yes",
+                    low_oil_volume=max(tank_l / 100.0, oil * low_share)).values
     # Equal levels may differ in the last bit: compare with a relative allowance.
     assert v["low_dwell"] <= v["dwell"] * (1 + 1e-12)
     assert v["dwell"] <= v["flow_minutes"] * (1 + 1e-12)

@@ -17,7 +17,7 @@ TEMPS = (-20.0, 0.0, 20.0, 40.0, 65.0, 100.0, 140.0)
 
 def _run(**inputs):
     defaults = dict(reading="rh", rh=30.0, ppm=150.0, temp=50.0, temp_cold=15.0,
-                    oil="mineral-aw", volume=200.0, density=870.0)
+                    oil="mineral-aw", oil_volume=200.0, density=870.0)
     return water_in_oil(**{**defaults, **inputs})
 
 
@@ -176,7 +176,7 @@ def test_bridge_us_units():
     # Lab reading at 104 degF (40 degC) in a 52.8 US gal (200 L) tank: same ppm, mL as US fl oz.
     metric = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 300, "temp": 40})
     us = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 300, "temp": 104,
-                                     "volume": 200 / 3.785411784, "temp_cold": 59,
+                                     "oil_volume": 200 / 3.785411784, "temp_cold": 59,
                                      "density": 870 / 16.01846337}, "us")
     assert us["values"]["ppm"] == pytest.approx(300.0)
     assert us["values"]["sat"] == pytest.approx(metric["values"]["sat"])
