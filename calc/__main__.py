@@ -2,6 +2,11 @@
 
     python -m calc tools [--json] [--units us]
     python -m calc run ID key=value ... [--units us] [--json] [--svg FILE]
+                                        [--machine card.json]
+
+A machine card file is a machine record as the app exports it ({"id", "card": {...}},
+metric) or a bare card of typed fields ({"name": "Press 3", "pump_flow": "60", ...}) in
+the --units system; its facts fill the tool's bound inputs not given as key=value.
 
 Exit status 0 on an answer, 2 on bad input.
 """
@@ -29,6 +34,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--units", default="metric", choices=("metric", "us"))
     run.add_argument("--json", action="store_true", help="print the bridge's JSON answer")
     run.add_argument("--svg", metavar="FILE", help="write the tool's chart, if it draws one")
+    run.add_argument("--machine", metavar="CARD.json",
+                     help="a machine card whose facts fill the inputs not given")
     return parser
 
 
@@ -47,6 +54,26 @@ def _print_catalogue(system: str) -> None:
         print()
 
 
+def _machine(path: str | None, system: str, bad: list) -> dict | None:
+    """The machine record of a --machine file, or None; a bad file goes on `bad`."""
+    if path is None:
+        return None
+    try:
+        with open(path, encoding="utf-8") as handle:
+            found = json.load(handle)
+    except (OSError, ValueError) as err:
+        bad.append({"field": "--machine", "message": f"cannot read {path}: {err}"})
+        return None
+    if isinstance(found, dict) and isinstance(found.get("card"), dict):
+        return found
+    checked = bridge.check_card(found, system)
+    if not checked["ok"]:
+        bad.extend({"field": f"--machine {e['field']}", "message": e["message"]}
+                   for e in checked["errors"])
+        return None
+    return checked["machine"]
+
+
 def _print_answer(answer: dict, tool_outputs: dict) -> None:
     for key, shown in answer["text"].items():
         print(f"{tool_outputs.get(key, key):<42} {shown}")
@@ -56,6 +83,8 @@ def _print_answer(answer: dict, tool_outputs: dict) -> None:
         print(f"{LEVEL_MARK[v['level']]} {v['message']}  ({v['basis']})")
     for note in answer["notes"]:
         print(f"note: {note}")
+    if answer.get("from_card"):
+        print("from the machine card: " + ", ".join(answer["from_card"]))
     if answer["sources"]:
         print("sources: " + "; ".join(answer["sources"]))
 
@@ -81,8 +110,13 @@ def main(argv: list[str] | None = None) -> int:
         if not sep or not key:
             bad.append({"field": pair, "message": "arguments are key=value"})
         inputs[key.strip()] = value
-    answer = bridge.run(args.tool, inputs, args.units) if not bad else {
-        "tool": args.tool, "ok": False, "errors": bad}
+    machine = _machine(args.machine, args.units, bad) if args.command == "run" else None
+    if bad:
+        answer = {"tool": args.tool, "ok": False, "errors": bad}
+    elif machine is not None:
+        answer = bridge.run_for_machine(args.tool, inputs, args.units, machine)
+    else:
+        answer = bridge.run(args.tool, inputs, args.units)
     if args.json:
         print(json.dumps(answer, indent=2, ensure_ascii=False))
     elif answer["ok"]:

@@ -23,7 +23,9 @@ from datetime import datetime
 
 from .kernel import chart, registry, units
 from .kernel.errors import InputError
-from .kernel.result import Result
+from .kernel.answer import present
+from .machines import api as machines_api
+from .machines.condition import when as machine_time
 
 BUG_MESSAGE = ("The calculator hit a fault of its own with these inputs (a bug, not your "
                "reading). Nothing was computed; please pass on the bug report that comes with "
@@ -60,39 +62,6 @@ def run(tool_id: str, inputs: dict | None = None, system: str = "metric") -> dic
         return {"tool": tool_id, "ok": False, "errors": err.as_list(_shower(system))}
     except Exception as err:  # noqa: BLE001 - a fault in a tool must reach the page as data
         return _bug(tool_id, err)
-
-
-def present(found: registry.Tool, result: Result, system: str) -> dict:
-    """A metric `Result` as the reader sees it in `system`."""
-    show = lambda value, quantity: units.show(value, quantity, system)  # noqa: E731
-    values, unit_of, shown = {}, {}, {}
-    for out in found.outputs:
-        if out.key not in result.values:
-            continue
-        value = result.values[out.key]
-        if isinstance(value, (int, float)) and not isinstance(value, bool):
-            values[out.key] = units.from_metric(float(value), out.quantity, system)
-            shown[out.key] = show(float(value), out.quantity)
-        else:
-            values[out.key] = value
-            shown[out.key] = "n/a" if value is None else str(value)
-        unit_of[out.key] = units.unit_label(out.quantity, system)
-    return {
-        "tool": found.id,
-        "ok": True,
-        "units": unit_of,
-        "values": values,
-        "text": shown,
-        "headline": [key for key in found.headline if key in shown],
-        "level": result.level,
-        "verdicts": [{"level": v.level, "message": v.message.render(show), "basis": v.basis}
-                     for v in result.verdicts],
-        "notes": [n.render(show) for n in result.notes],
-        "sources": list(result.sources),
-        "charts": {name: draw(system) for name, draw in result.charts.items()},
-        "ranked": [{"key": c.key, "title": c.title, "score": c.score,
-                    "reasons": [r.render(show) for r in c.reasons]} for c in result.ranked],
-    }
 
 
 def reexpress(tool_id: str, inputs: dict, from_system: str, to_system: str) -> dict:
@@ -148,6 +117,42 @@ def run_json(request: str) -> str:
     return json.dumps(answer, ensure_ascii=False)
 
 
+def run_for_machine(tool_id: str, inputs: dict, system: str, machine: dict) -> dict:
+    """`run` with a machine record's card filling the bound inputs not given; the answer
+    adds ``"from_card"`` (the keys it filled) and ``"inputs"`` (all, metric)."""
+    return _machine_call({"op": "run", "tool": tool_id, "inputs": inputs, "units": system,
+                          "machine": machine})
+
+
+def check_card(card: object, system: str) -> dict:
+    """A typed card checked: ``{"ok", "machine"}`` or ``{"ok": false, "errors"}``."""
+    return _machine_call({"op": "card-check", "card": card, "units": system,
+                          "time": datetime.now().astimezone().isoformat(timespec="seconds")})
+
+
+def _machine_call(request: dict) -> dict:
+    try:
+        answer = machines_api.call(request)
+    except Exception as err:  # noqa: BLE001 - a fault in calc must reach the page as data
+        return _bug(request.get("tool"), err)
+    answer.setdefault("tool", request.get("tool"))
+    return answer
+
+
+def machines_json(request: str) -> str:
+    """The worker's entry for the machine kit: one JSON request {"op", ...} in, one JSON
+    answer out (calc.machines.api lists the ops). Never raises: a fault of calc's own is
+    an answer with a bug report, as in `run`."""
+    try:
+        message = json.loads(request)
+    except ValueError as err:
+        return json.dumps({"ok": False, "errors": [{"field": "request", "message": str(err)}]})
+    if not isinstance(message, dict):
+        return json.dumps({"ok": False, "errors": [{"field": "request",
+                                                    "message": "must be an object"}]})
+    return json.dumps(_machine_call(message), ensure_ascii=False)
+
+
 def self_check() -> str:
     """Every tool run once on its defaults in both unit systems, as one JSON line.
 
@@ -171,14 +176,6 @@ def self_check() -> str:
                        "digest": digest.hexdigest()})
 
 
-def _when(stamp: object) -> datetime | None:
-    try:
-        when = datetime.fromisoformat(str(stamp).replace("Z", "+00:00"))
-    except ValueError:
-        return None
-    return when if when.tzinfo is not None else None
-
-
 def trends(entries: list, system: str = "metric") -> list[dict]:
     """Trend charts of saved results: one per machine and followed quantity with two or more
     points, drawn in `system` units. An entry is ``{"at": ISO time with offset, "machine",
@@ -196,7 +193,7 @@ def trends(entries: list, system: str = "metric") -> list[dict]:
     for entry in entries if isinstance(entries, list) else []:
         if not isinstance(entry, dict) or entry.get("tool") not in found:
             continue
-        when, values = _when(entry.get("at")), entry.get("values")
+        when, values = machine_time(entry.get("at")), entry.get("values")
         entry_system = entry.get("units") if entry.get("units") in units.SYSTEMS else "metric"
         if when is None or not isinstance(values, dict):
             continue

@@ -54,3 +54,34 @@ def test_catalogue_lists_every_tool_with_its_inputs(capsys):
     assert {"kv40", "kv100", "temp"} <= {f["key"] for f in first["inputs"]}  # DESIGN's core keys
     code, out, _ = _run(capsys, "tools")
     assert code == 0 and "viscosity-at-temperature" in out
+
+
+def test_a_machine_card_file_fills_the_machine_facts(capsys, tmp_path):
+    # A bare card typed in US units: 10 US gal/min is 37.854 L/min (NIST SP 811, B.9).
+    card = tmp_path / "saw.json"
+    card.write_text(json.dumps({"name": "Saw 2", "pump_flow": "10", "tank_volume": "40",
+                                "oil_volume": "32"}))
+    code, out, _ = _run(capsys, "run", "tank-sizing", "--machine", str(card), "--units", "us",
+                        "--json")
+    answer = json.loads(out)
+    assert code == 0 and set(answer["from_card"]) == {"pump_flow", "tank_volume", "oil_volume"}
+    assert answer["inputs"]["pump_flow"] == pytest.approx(37.854118, rel=1e-6)
+    # A key=value given wins over the card, and the human output names what the card gave.
+    code, out, _ = _run(capsys, "run", "tank-sizing", "--machine", str(card), "--units", "us",
+                        "pump_flow=20")
+    assert code == 0 and "from the machine card: tank_volume, oil_volume" in out
+    # A machine record as the app exports it works the same.
+    record = tmp_path / "record.json"
+    record.write_text(json.dumps({"id": "m1", "card": {"name": "Saw 2", "pump_flow": 37.854118}}))
+    code, out, _ = _run(capsys, "run", "tank-sizing", "--machine", str(record), "--json")
+    assert code == 0 and json.loads(out)["from_card"] == ["pump_flow"]
+
+
+def test_a_bad_machine_card_file_exits_2_naming_it(capsys, tmp_path):
+    missing = tmp_path / "none.json"
+    code, _, err = _run(capsys, "run", "tank-sizing", "--machine", str(missing))
+    assert code == 2 and "--machine" in err
+    bad = tmp_path / "bad.json"
+    bad.write_text(json.dumps({"name": "Saw 2", "pump_flow": "lots"}))
+    code, _, err = _run(capsys, "run", "tank-sizing", "--machine", str(bad))
+    assert code == 2 and "pump_flow" in err

@@ -1,0 +1,300 @@
+"""The machine kit's requests, as the page and the CLI make them: JSON-ready dicts in and
+out. `calc.bridge.machines_json` is the worker's door to them.
+
+A request is ``{"op": name, "units": "metric" | "us", ...}``; each op below says what else
+it reads. Every answer has ``"ok"``; a refused request is ``{"ok": false, "errors":
+[{"field", "message"}]}`` with each message in the reader's units. Machines and readings
+are records (calc.machines.records); the page stores them as they come and sends them
+back as they were stored.
+
+>>> plant = call({"op": "demo", "today": "2026-12-02"})
+>>> press = plant["machines"][0]
+>>> page = call({"op": "machine-page", "machine": press, "readings": plant["readings"],
+...              "units": "us", "today": "2026-12-02"})
+>>> page["ok"], page["name"], page["latest"][0]["label"], page["latest"][0]["text"]
+(True, 'Press 6 (demo)', 'Oil temperature', '136.4 °F')
+"""
+
+from __future__ import annotations
+
+from datetime import date
+
+from ..kernel import registry, units
+from ..kernel.answer import present
+from ..kernel.errors import InputError
+from ..kernel.result import LEVELS, Q
+from . import card as cards
+from . import condition, demo, records, report
+
+SLIM_KEYS = ("id", "machine", "tool", "time", "tracked", "level")
+
+
+def _system(request: dict) -> str:
+    return units.check_system(request.get("units") or "metric")
+
+
+def _show(system: str):
+    return lambda value, quantity: units.show(value, quantity, system)
+
+
+def _today(request: dict, key: str = "today") -> date:
+    try:
+        return date.fromisoformat(str(request.get(key)))
+    except ValueError:
+        raise InputError(key, "is a date written year-month-day, like 2026-03-31") from None
+
+
+def _machine(request: dict, required: bool = True) -> dict | None:
+    machine = request.get("machine")
+    if machine is None and not required:
+        return None
+    if not isinstance(machine, dict) or not isinstance(machine.get("card"), dict):
+        raise InputError("machine", "is a machine record as the machines store keeps it")
+    # A stored card is checked again: it may come from an older version or a file.
+    return {**machine, "card": cards.parse(machine["card"], "metric")}
+
+
+def _list(request: dict, key: str) -> list[dict]:
+    found = request.get(key)
+    if not isinstance(found, list):
+        raise InputError(key, "is a list of records")
+    return [r for r in found if isinstance(r, dict)]
+
+
+def card_form(request: dict) -> dict:
+    """The card's sections and fields, in the reader's units: ``{"sections"}``."""
+    return {"ok": True, "sections": cards.describe(_system(request))}
+
+
+def card_check(request: dict) -> dict:
+    """A typed card (``"card"``, in the reader's units) checked and made a machine record
+    (``"id"`` kept when editing one, ``"time"`` its local time with offset)."""
+    raw = request.get("card")
+    machine = records.new_machine(raw if isinstance(raw, dict) else None, _system(request),
+                                  request.get("time"), request.get("id") or None)
+    return {"ok": True, "machine": machine}
+
+
+def card_view(request: dict) -> dict:
+    """A machine's card for its form (``"values"``: as typed in the reader's units) and
+    for reading (``"summary"``: labelled lines, derived facts marked)."""
+    machine, system = _machine(request), _system(request)
+    return {"ok": True, "values": cards.shown(machine["card"], system),
+            "summary": cards.summary(machine["card"], system)}
+
+
+def fill(request: dict) -> dict:
+    """What a machine's card puts into one tool's form: ``"values"`` {key: text in the
+    reader's units} for every bound input the card knows and this tool takes, ``"misfits"``
+    [{field, message}] for card values this tool cannot take (the run then refuses them,
+    naming the card), ``"bound"`` {key: card field} for every bound input."""
+    found, system = registry.get(str(request.get("tool"))), _system(request)
+    machine = _machine(request)
+    facts = cards.facts(machine["card"])[0]
+    values, misfits = {}, []
+    for f in found.inputs:
+        fact = facts.get(f.binds) if f.binds else None
+        if fact is None:
+            continue
+        try:
+            f.parse(fact, "metric")
+        except InputError as err:
+            misfits += err.as_list(_show(system))
+            continue
+        values[f.key] = (units.format_input(units.from_metric(fact, f.quantity, system))
+                         if f.is_number else fact)
+    return {"ok": True, "values": values, "misfits": misfits,
+            "bound": {f.key: f.binds for f in found.inputs if f.binds}}
+
+
+def to_card(request: dict) -> dict:
+    """Save one input's typed value (``"tool"``, ``"key"``, ``"value"``) to the machine's
+    card field it is bound to; the updated machine record."""
+    found, system = registry.get(str(request.get("tool"))), _system(request)
+    machine = _machine(request)
+    key = str(request.get("key"))
+    try:
+        f = found.field(key)
+    except KeyError:
+        raise InputError(key, "is not an input of {tool}", tool=Q(found.id, "text")) from None
+    if not f.binds or f.binds not in cards.FIELDS:
+        raise InputError(key, "is not a fact of the machine card")
+    value = f.parse(request.get("value"), system)
+    card = {k: v for k, v in machine["card"].items() if k != f.binds}
+    if value is not None:
+        card[f.binds] = value
+    # The card's own field and cross-checks judge the value again (metric in, metric out).
+    return {"ok": True, "machine": {**machine, "card": cards.parse(card, "metric"),
+                                    "updated": records.checked_time(request.get("time"))}}
+
+
+def run(request: dict) -> dict:
+    """One tool's answer (as `bridge.run`), with a machine's card filling the bound inputs
+    left blank: ``"from_card"`` lists them, ``"inputs"`` has every input as parsed
+    (metric)."""
+    found, system = registry.get(str(request.get("tool"))), _system(request)
+    machine = _machine(request, required=False)
+    facts = cards.facts(machine["card"])[0] if machine else None
+    raw = request.get("inputs") if isinstance(request.get("inputs"), dict) else {}
+    values, from_card = found.parse_from(raw, system, facts)
+    return {**present(found, found.run_parsed(values), system), "from_card": from_card,
+            "inputs": values}
+
+
+def save(request: dict) -> dict:
+    """Make the reading record of a tool's answer (``"tool"``, ``"inputs"`` as typed,
+    ``"machine"`` or none, ``"time"``, ``"note"``): ``{"record", "answer"}``. The inputs are
+    parsed again here, so only an answer to what was typed is ever saved."""
+    system = _system(request)
+    made = records.new_reading(str(request.get("tool")),
+                               request.get("inputs") if isinstance(request.get("inputs"), dict)
+                               else {}, system, _machine(request, required=False),
+                               request.get("time"), request.get("note") or "")
+    return {"ok": True, "record": made["record"],
+            "answer": present(made["tool"], made["result"], system)}
+
+
+def reading(request: dict) -> dict:
+    """A stored reading shown now, in the reader's units: ``{"view"}`` (`records.view`;
+    the view's own ``"ok"`` is false for a reading kept as saved)."""
+    record = request.get("record")
+    if not isinstance(record, dict):
+        raise InputError("record", "is a reading record")
+    return {"ok": True, "view": records.view(record, _system(request))}
+
+
+def readings(request: dict) -> dict:
+    """Several stored readings shown now (a page of the log): ``{"views"}``."""
+    system = _system(request)
+    return {"ok": True, "views": [records.view(r, system) for r in _list(request, "records")]}
+
+
+def _latest_rows(facts: dict, found: list[dict], system: str) -> list[dict]:
+    show = _show(system)
+    rows = []
+    for p in condition.latest(facts, found):
+        tracked = registry.TRACKED[p["tracks"]]
+        verdict = p["verdict"]
+        tool_id = p["reading"].get("tool")
+        rows.append({
+            "tracks": p["tracks"], "label": tracked.label,
+            "text": units.show(p["value"], tracked.quantity, system),
+            "level": verdict.level if verdict else None,
+            "message": (verdict.message if verdict else p["missing"]).render(show),
+            "basis": verdict.basis if verdict else None,
+            "time": p["reading"].get("time"), "reading": p["reading"].get("id"),
+            "tool": tool_id,
+            "tool_title": registry.get(tool_id).title if tool_id in registry.tools() else tool_id,
+        })
+    return rows
+
+
+def _due_rows(facts: dict, found: list[dict], today: date, system: str) -> list[dict]:
+    show = _show(system)
+    return [{"key": d.key, "label": d.label, "on": d.on.isoformat() if d.on else None,
+             "state": d.state, "says": d.says.render(show)}
+            for d in condition.due(facts, found, today)]
+
+
+def machine_page(request: dict) -> dict:
+    """Everything a machine's page shows: the card's summary, the latest value and verdict
+    of each followed quantity, a trend of each against its limits, what is due, and the
+    tools that can take a reading filled from the card. ``"readings"`` may be all
+    readings: only this machine's are used."""
+    machine, system, today = _machine(request), _system(request), _today(request)
+    found = [r for r in _list(request, "readings") if r.get("machine") == machine["id"]]
+    facts = cards.facts(machine["card"])[0]
+    latest = _latest_rows(facts, found, system)
+    levels = [row["level"] for row in latest if row["level"]]
+    return {
+        "ok": True, "id": machine["id"], "name": machine["card"].get("name", ""),
+        "site": machine["card"].get("site", ""),
+        "summary": cards.summary(machine["card"], system),
+        "level": max(levels, key=LEVELS.index) if levels else None,
+        "latest": latest,
+        "trends": condition.trends(facts, found, system),
+        "due": _due_rows(facts, found, today, system),
+        "count": len(found),
+        "tools": [{"id": t.id, "title": t.title, "kind": t.kind,
+                   "bound": sum(1 for f in t.inputs if f.binds and f.binds in facts)}
+                  for t in registry.tools().values() if any(f.binds for f in t.inputs)],
+    }
+
+
+def machine_list(request: dict) -> dict:
+    """The machines list: for each machine its name, site, worst latest verdict, number of
+    readings, newest reading and the first thing due. Readings may be slim (only
+    ``"machine"``, ``"time"``, ``"tracked"``)."""
+    system, today = _system(request), _today(request)
+    by_machine: dict[str, list[dict]] = {}
+    for r in _list(request, "readings"):
+        by_machine.setdefault(r.get("machine"), []).append(r)
+    rows = []
+    for machine in _list(request, "machines"):
+        card = machine.get("card") if isinstance(machine.get("card"), dict) else {}
+        try:
+            facts = cards.facts(cards.parse(card, "metric"))[0]
+        except InputError:
+            facts = {}
+        found = by_machine.get(machine.get("id"), [])
+        latest = condition.latest(facts, found)
+        levels = [p["verdict"].level for p in latest if p["verdict"]]
+        due = _due_rows(facts, found, today, system)
+        times = [t for t in (condition.when(r.get("time")) for r in found) if t]
+        rows.append({"id": machine.get("id"), "name": card.get("name", ""),
+                     "site": card.get("site", ""), "demo": bool(machine.get("demo")),
+                     "level": max(levels, key=LEVELS.index) if levels else None,
+                     "readings": len(found),
+                     "last": max(times).isoformat() if times else None,
+                     "due": due[0] if due else None,
+                     "overdue": sum(d["state"] == "overdue" for d in due)})
+    rows.sort(key=lambda r: (r["name"].casefold(), r["id"] or ""))
+    return {"ok": True, "machines": rows}
+
+
+def visit(request: dict) -> dict:
+    """The visit report of one machine and day (``"day"``), with ``"who"`` and ``"notes"``."""
+    machine = _machine(request)
+    found = [r for r in _list(request, "readings") if r.get("machine") == machine["id"]]
+    return {"ok": True, **report.visit(machine, found, _system(request), _today(request, "day"),
+                                       str(request.get("who") or ""),
+                                       str(request.get("notes") or ""))}
+
+
+def csv(request: dict) -> dict:
+    """The CSV of readings (``"machines"`` name them): ``{"text"}``."""
+    return {"ok": True, "text": report.csv_text(_list(request, "machines"),
+                                                _list(request, "readings"), _system(request))}
+
+
+def demo_plant(request: dict) -> dict:
+    """The demo plant's machines and readings, dated back from ``"today"``."""
+    return {"ok": True, **demo.plant(_today(request))}
+
+
+def migrate(request: dict) -> dict:
+    """An earlier build's log entries (``"entries"``) as machines and readings."""
+    return {"ok": True, **records.migrate(_list(request, "entries"), request.get("time"))}
+
+
+OPS = {
+    "card-form": card_form, "card-check": card_check, "card-view": card_view, "fill": fill,
+    "to-card": to_card, "run": run, "save": save, "reading": reading, "readings": readings,
+    "machine-page": machine_page, "machines": machine_list, "visit": visit, "csv": csv,
+    "demo": demo_plant, "migrate": migrate,
+}
+
+
+def call(request: dict) -> dict:
+    """Answer one request; InputError (the request's own fault) becomes a refusal."""
+    if not isinstance(request, dict) or request.get("op") not in OPS:
+        return {"ok": False, "errors": [{"field": "op", "message": "must be one of " +
+                                         ", ".join(OPS)}]}
+    try:
+        return OPS[request["op"]](request)
+    except InputError as err:
+        try:
+            show = _show(_system(request))
+        except InputError:
+            show = _show("metric")
+        return {"ok": False, "errors": err.as_list(show)}

@@ -1,0 +1,266 @@
+"""Machines and readings as records kept on the phone: what is stored, and how a stored
+reading is shown again.
+
+A machine record holds its card (metric, as `card.parse` gives it). A reading record
+holds what calc needs to answer it again, never display text:
+
+    {"format": "sumpside-reading", "version": 1, "id", "machine": machine id or None,
+     "tool", "inputs": {key: metric value as parsed}, "from_card": [keys taken from the
+     card], "calc": calc's version, "time": ISO 8601 with the local offset, "note",
+     "tracked": {followed quantity: metric value}, "level"}
+
+``tracked`` and ``level`` are what the tool answered when the reading was saved, kept so a
+machine page with a thousand readings draws its trends without running a tool again;
+everything shown (labels, values, units, verdicts) is computed again from the inputs by
+the calc that shows it, in the reader's units.
+
+A log kept by an earlier build (display text, inputs as typed) is migrated by `migrate`:
+each entry becomes a reading again from its typed inputs where they still parse, or is
+kept as it was (``"as_saved"``) where they no longer do, so nothing is lost.
+
+>>> saved = new_reading("viscosity-at-temperature", {"temp": "60"}, "metric", None,
+...                     "2026-03-04T09:15:00+01:00")
+>>> saved["record"]["inputs"]["temp"], saved["record"]["tracked"]
+(60.0, {'oil_temp': 60.0})
+>>> view(saved["record"], "us")["text"]["kv"]
+'20.6 cSt'
+"""
+
+from __future__ import annotations
+
+import math
+import uuid
+
+from .. import __version__
+from ..kernel import registry, units
+from ..kernel.answer import present
+from ..kernel.errors import InputError
+from ..kernel.result import Q, Result
+from . import card as cards
+from .condition import when
+
+READING = "sumpside-reading"
+MACHINE = "sumpside-machine"
+VERSION = 1
+NOTE_MAX_CHARS = 2000
+
+
+def new_id() -> str:
+    return uuid.uuid4().hex
+
+
+def checked_time(stamp: object) -> str:
+    if when(stamp) is None:
+        raise InputError("time", "is a time with its offset from UTC, like "
+                                 "2026-03-04T09:15:00+01:00")
+    return str(stamp)
+
+
+def new_machine(raw: dict, system: str, stamp: str, machine_id: str | None = None) -> dict:
+    """A machine record from a typed card; InputError names each bad field."""
+    return {"format": MACHINE, "version": VERSION, "id": machine_id or new_id(),
+            "card": cards.parse(raw, system), "updated": checked_time(stamp)}
+
+
+def tracked_values(found: registry.Tool, values: dict, result: Result) -> dict[str, float]:
+    """The followed quantities a reading measured: inputs first (what was read), then
+    outputs (what calc worked out from it)."""
+    out: dict[str, float] = {}
+    for f in found.inputs:
+        value = values.get(f.key)
+        if f.tracks and _finite(value):
+            out.setdefault(f.tracks, float(value))
+    for o in found.outputs:
+        value = result.values.get(o.key)
+        if o.tracks and _finite(value):
+            out.setdefault(o.tracks, float(value))
+    return out
+
+
+def _finite(value: object) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
+
+
+def new_reading(tool_id: str, raw: dict, system: str, machine: dict | None, stamp: str,
+                note: str = "") -> dict:
+    """Run a tool for a machine and make the reading record of its answer.
+
+    `machine` is a machine record (its card fills the bound inputs left blank) or None.
+    Returns ``{"record", "result", "tool"}``; InputError when the inputs do not answer
+    (nothing is saved from inputs that give no answer).
+    """
+    found = registry.get(tool_id)
+    system = units.check_system(system)
+    facts = cards.facts(machine["card"])[0] if machine else None
+    values, from_card = found.parse_from(dict(raw or {}), system, facts)
+    note = "" if note is None else str(note).strip()
+    if len(note) > NOTE_MAX_CHARS:
+        raise InputError("note", "is {n} characters long; at most {most}",
+                         n=Q(float(len(note)), "count"), most=Q(float(NOTE_MAX_CHARS), "count"))
+    result = found.run_parsed(values)
+    record = {"format": READING, "version": VERSION, "id": new_id(),
+              "machine": machine["id"] if machine else None, "tool": found.id,
+              "inputs": values, "from_card": from_card, "calc": __version__,
+              "time": checked_time(stamp), "note": note,
+              "tracked": tracked_values(found, values, result), "level": result.level}
+    return {"record": record, "result": result, "tool": found}
+
+
+def stored_inputs(found: registry.Tool, inputs: dict) -> dict:
+    """A record's metric inputs made whole for today's tool: renamed keys under their new
+    names, inputs added since at their defaults; InputError when a value no longer fits."""
+    given, errors = found.rename_old_keys(inputs if isinstance(inputs, dict) else {})
+    unknown = sorted(set(given) - {f.key for f in found.inputs})
+    errors += [InputError(k, "was an input when this reading was saved and is no longer one")
+               for k in unknown]
+    values = {}
+    for f in found.inputs:
+        if f.key not in given:
+            values[f.key] = bool(f.default) if f.is_flag else f.default
+        elif given[f.key] is None and (f.optional or f.is_flag):
+            values[f.key] = None if not f.is_flag else False
+        elif f.accepts(given[f.key]):
+            values[f.key] = given[f.key]
+        else:
+            errors.append(InputError(f.key, "holds a value this version does not accept"))
+    if errors:
+        raise InputError.combine(errors)
+    return values
+
+
+def answer(record: dict) -> tuple[registry.Tool, dict, Result]:
+    """(tool, inputs, the answer) of a stored reading, computed again now."""
+    found = registry.get(str(record.get("tool")))
+    values = stored_inputs(found, record.get("inputs"))
+    return found, values, found.run_parsed(values)
+
+
+def shown_inputs(found: registry.Tool, values: dict, from_card: list, system: str) -> list[dict]:
+    """The inputs of a reading as the reader reads them: label and value in `system`
+    units, taken from the card or typed; a tick box only when ticked, blanks left out."""
+    rows = []
+    for f in found.inputs:
+        value = values.get(f.key)
+        if value is None or (f.is_flag and not value):
+            continue
+        if f.is_flag:
+            shown = "yes"
+        elif f.is_choice:
+            shown = dict(f.choices).get(value, str(value))
+        elif f.is_text:
+            shown = str(value)
+        else:
+            shown = units.show(float(value), f.quantity, system)
+        rows.append({"key": f.key, "label": f.label, "text": shown, "group": f.group,
+                     "flag": f.is_flag, "from_card": f.key in (from_card or [])})
+    return rows
+
+
+def meta(record: dict) -> dict:
+    """What a view of a reading carries besides the answer."""
+    return {"id": record.get("id"), "machine": record.get("machine"),
+            "time": record.get("time"), "note": record.get("note") or "",
+            "calc": record.get("calc")}
+
+
+def view(record: dict, system: str) -> dict:
+    """A stored reading as the reader sees it now, in `system` units: the tool's answer
+    computed again from the stored inputs, with those inputs shown. A reading that no
+    longer computes (or was migrated as it was) is shown as saved, and says so."""
+    system = units.check_system(system)
+    if record.get("as_saved") is not None:
+        return {**meta(record), **_as_saved(record)}
+    try:
+        found, values, result = answer(record)
+    except InputError as err:
+        return {**meta(record), "tool": record.get("tool"), "ok": False, "stale": True,
+                "title": str(record.get("tool")),
+                "message": "This reading was saved by calc " + str(record.get("calc")) +
+                           " and its inputs no longer fit this version (" + str(err) +
+                           "); its followed values are kept.",
+                "tracked": record.get("tracked") or {}}
+    shown = present(found, result, system)
+    return {**meta(record), **shown, "title": found.title, "kind": found.kind,
+            "inputs": shown_inputs(found, values, record.get("from_card"), system)}
+
+
+def _as_saved(record: dict) -> dict:
+    kept = record["as_saved"]
+    return {"tool": record.get("tool"), "ok": False, "stale": True,
+            "title": str(kept.get("title") or record.get("tool")),
+            "message": "Saved by an earlier version and kept as it was saved: its inputs no "
+                       "longer fit this version's tool.",
+            "text": kept.get("text") or {}, "verdicts_as_saved": kept.get("verdicts") or [],
+            "level": kept.get("level"), "tracked": record.get("tracked") or {}}
+
+
+def migrate(entries: list, stamp: str) -> dict:
+    """The log of an earlier build (IndexedDB store "entries") as machines and readings.
+
+    An entry is ``{"at", "machine": free-text name, "tool", "title", "units", "inputs":
+    typed text, "text", "values", "level", "verdicts"}``. Each named machine becomes a
+    machine with that name; each entry becomes a reading of it, from its typed inputs
+    where this version still takes them, else kept as it was saved. Returns
+    ``{"machines", "readings", "recomputed", "kept_as_saved", "skipped"}``.
+    """
+    machines: dict[str, dict] = {}
+    readings, recomputed, kept, skipped = [], 0, 0, 0
+    for entry in entries if isinstance(entries, list) else []:
+        if not isinstance(entry, dict) or when(entry.get("at")) is None:
+            skipped += 1
+            continue
+        name = " ".join(str(entry.get("machine") or "").split())[:80]
+        machine = None
+        if name:
+            machine = machines.get(name.casefold())
+            if machine is None:
+                machine = new_machine({"name": name}, "metric", stamp)
+                machines[name.casefold()] = machine
+        record = _migrated(entry, machine)
+        if record.get("as_saved") is None:
+            recomputed += 1
+        else:
+            kept += 1
+        readings.append(record)
+    return {"machines": list(machines.values()), "readings": readings,
+            "recomputed": recomputed, "kept_as_saved": kept, "skipped": skipped}
+
+
+def _migrated(entry: dict, machine: dict | None) -> dict:
+    system = entry.get("units") if entry.get("units") in units.SYSTEMS else "metric"
+    inputs = entry.get("inputs") if isinstance(entry.get("inputs"), dict) else {}
+    stamp = str(entry["at"]).replace("Z", "+00:00")
+    try:
+        made = new_reading(str(entry.get("tool")), inputs, system, None, stamp)
+        record = made["record"]
+        record["machine"] = machine["id"] if machine else None
+        record["migrated"] = True
+        return record
+    except (KeyError, InputError, ValueError, ArithmeticError):
+        pass
+    record = {"format": READING, "version": VERSION, "id": new_id(),
+              "machine": machine["id"] if machine else None, "tool": str(entry.get("tool")),
+              "inputs": {}, "from_card": [], "calc": "an earlier build", "time": stamp,
+              "note": "", "tracked": _old_tracked(entry, system),
+              "level": entry.get("level") if entry.get("level") in ("ok", "watch", "act") else None,
+              "migrated": True,
+              "as_saved": {"title": str(entry.get("title") or entry.get("tool")),
+                           "text": {str(k): str(v) for k, v in (entry.get("text") or {}).items()},
+                           "verdicts": [str(v) for v in entry.get("verdicts") or []],
+                           "inputs": {str(k): str(v) for k, v in inputs.items()},
+                           "units": system, "level": entry.get("level")}}
+    return record
+
+
+def _old_tracked(entry: dict, system: str) -> dict:
+    """The followed values of an entry kept as saved, from its numbers in its units."""
+    found = registry.tools().get(str(entry.get("tool")))
+    if found is None:
+        return {}
+    values = entry.get("values") if isinstance(entry.get("values"), dict) else {}
+    out = {}
+    for o in found.outputs:
+        value = values.get(o.key)
+        if o.tracks and _finite(value):
+            out[o.tracks] = units.to_metric(float(value), o.quantity, system)
+    return out
