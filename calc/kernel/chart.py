@@ -242,6 +242,9 @@ def document(width: float, height: float, title: str, desc: str, body: Iterable[
 TREND_W, TREND_H = 400.0, 240.0
 _TREND_BOX = (58.0, 34.0, 326.0, 150.0)  # left, top, width, height of the plot, viewBox units
 _DAY_S = 86400.0
+# A trend marks each reading up to this many; past it, only the newest few (the line shows
+# the rest): a machine with a thousand readings draws one line, not a thousand dots.
+TREND_MARKS_MAX = 60
 
 
 def _date_ticks(t0: float, t1: float, tz, most: int = 4) -> list[tuple[float, str]]:
@@ -284,7 +287,7 @@ def trend(points: Sequence[tuple[datetime, float]], quantity: str, system: str, 
                          "limit-label", anchor="end"))
     line = [ax.point(t, v) for t, v in zip(times, values)]
     body.append(polyline(line, "trend-line", "#12357a", 3.0))
-    body += [marker(x, y, "trend-point", radius=5.0) for x, y in line]
+    body += [marker(x, y, "trend-point", radius=5.0) for x, y in line[-TREND_MARKS_MAX:]]
     shown = ", ".join(f"{p[0].date().isoformat()}: {units.show(p[1], quantity, system)}"
                       for p in points[-6:])
     desc = f"{len(points)} readings, oldest first; the latest: {shown}."

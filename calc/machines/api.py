@@ -143,7 +143,8 @@ def run(request: dict) -> dict:
 
 def save(request: dict) -> dict:
     """Make the reading record of a tool's answer (``"tool"``, ``"inputs"`` as typed,
-    ``"machine"`` or none, ``"time"``, ``"note"``): ``{"record", "answer"}``. The inputs are
+    ``"machine"`` or none, ``"time"``, ``"note"``): ``{"record", "answer", "digest"}``, the
+    digest being the machine's ``"digest"`` sent with one more reading. The inputs are
     parsed again here, so only an answer to what was typed is ever saved."""
     system = _system(request)
     made = records.new_reading(str(request.get("tool")),
@@ -151,7 +152,14 @@ def save(request: dict) -> dict:
                                else {}, system, _machine(request, required=False),
                                request.get("time"), request.get("note") or "")
     return {"ok": True, "record": made["record"],
-            "answer": present(made["tool"], made["result"], system)}
+            "answer": present(made["tool"], made["result"], system),
+            "digest": condition.digest_add(request.get("digest"), made["record"])}
+
+
+def digest(request: dict) -> dict:
+    """A machine's digest made again from all its ``"readings"`` (after a delete or an
+    import): ``{"digest"}``."""
+    return {"ok": True, "digest": condition.digest(_list(request, "readings"))}
 
 
 def reading(request: dict) -> dict:
@@ -223,12 +231,16 @@ def machine_page(request: dict) -> dict:
 
 def machine_list(request: dict) -> dict:
     """The machines list: for each machine its name, site, worst latest verdict, number of
-    readings, newest reading and the first thing due. Readings may be slim (only
-    ``"machine"``, ``"time"``, ``"tracked"``)."""
+    readings, newest reading and the first thing due. ``"digests"`` {machine id: digest
+    (`condition.digest`)} stand for each machine's readings; without them, ``"readings"``
+    (all, or slim: ``"machine"``, ``"time"``, ``"tracked"``) are used."""
     system, today = _system(request), _today(request)
-    by_machine: dict[str, list[dict]] = {}
-    for r in _list(request, "readings"):
-        by_machine.setdefault(r.get("machine"), []).append(r)
+    digests = request.get("digests")
+    if not isinstance(digests, dict):
+        by_machine: dict[str, list[dict]] = {}
+        for r in _list(request, "readings"):
+            by_machine.setdefault(r.get("machine"), []).append(r)
+        digests = {key: condition.digest(found) for key, found in by_machine.items()}
     rows = []
     for machine in _list(request, "machines"):
         card = machine.get("card") if isinstance(machine.get("card"), dict) else {}
@@ -236,16 +248,16 @@ def machine_list(request: dict) -> dict:
             facts = cards.facts(cards.parse(card, "metric"))[0]
         except InputError:
             facts = {}
-        found = by_machine.get(machine.get("id"), [])
+        known = digests.get(machine.get("id"))
+        known = known if isinstance(known, dict) else condition.digest([])
+        found = [r for r in known.get("readings") or [] if isinstance(r, dict)]
         latest = condition.latest(facts, found)
         levels = [p["verdict"].level for p in latest if p["verdict"]]
         due = _due_rows(facts, found, today, system)
-        times = [t for t in (condition.when(r.get("time")) for r in found) if t]
         rows.append({"id": machine.get("id"), "name": card.get("name", ""),
                      "site": card.get("site", ""), "demo": bool(machine.get("demo")),
                      "level": max(levels, key=LEVELS.index) if levels else None,
-                     "readings": len(found),
-                     "last": max(times).isoformat() if times else None,
+                     "readings": int(known.get("count") or 0), "last": known.get("last"),
                      "due": due[0] if due else None,
                      "overdue": sum(d["state"] == "overdue" for d in due)})
     rows.sort(key=lambda r: (r["name"].casefold(), r["id"] or ""))
@@ -267,21 +279,31 @@ def csv(request: dict) -> dict:
                                                 _list(request, "readings"), _system(request))}
 
 
+def _with_digests(made: dict) -> dict:
+    """`made` ({"machines", "readings", ...}) with each machine's digest."""
+    by_machine: dict[str, list[dict]] = {m["id"]: [] for m in made["machines"]}
+    for r in made["readings"]:
+        by_machine.setdefault(r.get("machine"), []).append(r)
+    return {"ok": True, **made, "digests": {key: condition.digest(found)
+                                            for key, found in by_machine.items()
+                                            if key is not None}}
+
+
 def demo_plant(request: dict) -> dict:
-    """The demo plant's machines and readings, dated back from ``"today"``."""
-    return {"ok": True, **demo.plant(_today(request))}
+    """The demo plant's machines, readings and digests, dated back from ``"today"``."""
+    return _with_digests(demo.plant(_today(request)))
 
 
 def migrate(request: dict) -> dict:
-    """An earlier build's log entries (``"entries"``) as machines and readings."""
-    return {"ok": True, **records.migrate(_list(request, "entries"), request.get("time"))}
+    """An earlier build's log entries (``"entries"``) as machines, readings and digests."""
+    return _with_digests(records.migrate(_list(request, "entries"), request.get("time")))
 
 
 OPS = {
     "card-form": card_form, "card-check": card_check, "card-view": card_view, "fill": fill,
     "to-card": to_card, "run": run, "save": save, "reading": reading, "readings": readings,
     "machine-page": machine_page, "machines": machine_list, "visit": visit, "csv": csv,
-    "demo": demo_plant, "migrate": migrate,
+    "demo": demo_plant, "migrate": migrate, "digest": digest,
 }
 
 

@@ -366,6 +366,41 @@ def due(facts: dict, readings: list[dict], today: date) -> list[Due]:
     return sorted(found, key=lambda d: (d.on is not None, d.on or today))
 
 
+def digest(readings: list[dict], count: int | None = None) -> dict:
+    """What the machines list needs of one machine's readings, small enough to keep beside
+    the machine: ``{"count", "last", "readings"}`` where ``readings`` are the few (slim)
+    readings that decide `latest` and `due` (the newest of each followed quantity and the
+    newest sample), so the list never reads every reading.
+
+    >>> r = [{"id": str(d), "time": f"2026-01-0{d}T08:00:00Z", "tool": "t",
+    ...       "tracked": {"water_ppm": 100.0 * d}} for d in (1, 2, 3)]
+    >>> small = digest(r)
+    >>> small["count"], [x["id"] for x in small["readings"]]
+    (3, ['3'])
+    """
+    dated = [(when(r.get("time")), i, r) for i, r in enumerate(readings)]
+    dated = sorted((d for d in dated if d[0] is not None), key=lambda d: (d[0], d[1]))
+    keep: dict[str, tuple[int, dict]] = {}
+    for _at, index, reading in dated:
+        tracked = reading.get("tracked") if isinstance(reading.get("tracked"), dict) else {}
+        for key in tracked:
+            keep[key] = (index, reading)
+        if any(k in SAMPLE_QUANTITIES for k in tracked):
+            keep[" sample"] = (index, reading)
+    chosen = sorted({index: reading for index, reading in keep.values()}.items())
+    slim = [{k: reading.get(k) for k in ("id", "tool", "time", "tracked", "machine")}
+            for _index, reading in chosen]
+    return {"count": len(readings) if count is None else count,
+            "last": dated[-1][2].get("time") if dated else None, "readings": slim}
+
+
+def digest_add(known: dict | None, reading: dict) -> dict:
+    """`known` (a digest) with one more reading."""
+    known = known if isinstance(known, dict) else {}
+    kept = [r for r in known.get("readings") or [] if isinstance(r, dict)]
+    return digest(kept + [reading], int(known.get("count") or 0) + 1)
+
+
 def _date(value: object) -> date | None:
     try:
         return date.fromisoformat(str(value)) if value else None

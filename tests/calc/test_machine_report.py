@@ -9,7 +9,7 @@ import pytest
 
 from calc import bridge
 from calc.kernel import registry
-from calc.machines import api, records, report
+from calc.machines import api, condition, records, report
 from calc.machines.demo import plant
 
 TODAY = "2026-12-02"
@@ -128,3 +128,25 @@ def test_the_form_is_filled_from_the_card_in_the_readers_units(demo):
     # 63 mm = 2.48 in; 180 L/min = 47.55 US gal/min (NIST SP 811, B.9).
     assert filled["values"]["suction_bore"] == "2.48" and filled["values"]["pump_flow"] == "47.55"
     assert filled["bound"]["pump_flow"] == "pump_flow" and not filled["misfits"]
+
+
+def test_the_machines_list_from_digests_is_the_list_from_all_readings(demo):
+    full = _call(op="machines", machines=demo["machines"], readings=demo["readings"],
+                 units="metric", today=TODAY)
+    plant_now = _call(op="demo", today=TODAY)
+    assert set(plant_now["digests"]) == {m["id"] for m in plant_now["machines"]}
+    digests = {}
+    # Digests made one save at a time are the digests of all the readings at once.
+    for machine in demo["machines"]:
+        mine = [r for r in demo["readings"] if r["machine"] == machine["id"]]
+        known = None
+        for record in mine:
+            known = condition.digest_add(known, record)
+        assert known == condition.digest(mine)
+        digests[machine["id"]] = known
+    small = _call(op="machines", machines=demo["machines"], digests=digests, units="metric",
+                  today=TODAY)
+    assert small == full
+    crane = next(m for m in full["machines"] if m["name"].startswith("Crane"))
+    assert crane["level"] == "act" and crane["overdue"] == 1 and crane["due"]["key"] == "filter"
+    assert [m["name"] for m in full["machines"]] == sorted(m["name"] for m in full["machines"])
