@@ -17,15 +17,13 @@ from __future__ import annotations
 
 import hashlib
 import json
-import math
 import traceback
 from datetime import datetime
 
-from .kernel import chart, registry, units
+from .kernel import registry, units
 from .kernel.errors import InputError
 from .kernel.answer import present
 from .machines import api as machines_api
-from .machines.condition import when as machine_time
 
 BUG_MESSAGE = ("The calculator hit a fault of its own with these inputs (a bug, not your "
                "reading). Nothing was computed; please pass on the bug report that comes with "
@@ -135,7 +133,8 @@ def _machine_call(request: dict) -> dict:
         answer = machines_api.call(request)
     except Exception as err:  # noqa: BLE001 - a fault in calc must reach the page as data
         return _bug(request.get("tool"), err)
-    answer.setdefault("tool", request.get("tool"))
+    if "tool" in request:
+        answer.setdefault("tool", request["tool"])
     return answer
 
 
@@ -174,55 +173,3 @@ def self_check() -> str:
                 failed.append(f"{tool_id}/{system}")
     return json.dumps({"ok": not failed, "tools": len(found), "failed": failed,
                        "digest": digest.hexdigest()})
-
-
-def trends(entries: list, system: str = "metric") -> list[dict]:
-    """Trend charts of saved results: one per machine and followed quantity with two or more
-    points, drawn in `system` units. An entry is ``{"at": ISO time with offset, "machine",
-    "tool", "values": {output: number}, "units": the system its values are in}``; entries
-    that do not fit (unknown tool, bad time, no number) are left out, never fatal.
-
-    >>> e = [{"at": f"2026-0{m}-01T08:00:00Z", "machine": "Press 2", "tool": "viscosity-grade",
-    ...       "values": {"kv40": kv}, "units": "metric"} for m, kv in ((1, 46.0), (3, 49.0))]
-    >>> [(t["machine"], t["tracks"], t["points"]) for t in trends(e)]
-    [('Press 2', 'kv40', 2)]
-    """
-    system = units.check_system(system)
-    found = registry.tools()
-    series: dict[tuple[str, str], list[tuple[datetime, float]]] = {}
-    for entry in entries if isinstance(entries, list) else []:
-        if not isinstance(entry, dict) or entry.get("tool") not in found:
-            continue
-        when, values = machine_time(entry.get("at")), entry.get("values")
-        entry_system = entry.get("units") if entry.get("units") in units.SYSTEMS else "metric"
-        if when is None or not isinstance(values, dict):
-            continue
-        machine = str(entry.get("machine") or "")[:200]
-        for out in found[entry["tool"]].outputs:
-            value = values.get(out.key)
-            if out.tracks is None or isinstance(value, bool) or not isinstance(value, (int, float)):
-                continue
-            metric = units.to_metric(float(value), out.quantity, entry_system)
-            if math.isfinite(metric):
-                series.setdefault((machine, out.tracks), []).append((when, metric))
-    drawn = []
-    for (machine, tracks), points in series.items():
-        if len(points) < 2:
-            continue
-        tracked = registry.TRACKED[tracks]
-        title = f"{tracked.label}{' · ' + machine if machine else ''}"
-        drawn.append({"machine": machine, "tracks": tracks, "title": title,
-                      "points": len(points),
-                      "svg": chart.trend(sorted(points), tracked.quantity, system, title)})
-    return drawn
-
-
-def trends_json(request: str) -> str:
-    """The worker's entry for the log: {entries, units} -> [{machine, tracks, title, svg}]."""
-    try:
-        message = json.loads(request)
-        entries = message.get("entries") if isinstance(message, dict) else None
-        system = message.get("units") if isinstance(message, dict) else None
-        return json.dumps(trends(entries or [], system or "metric"), ensure_ascii=False)
-    except (ValueError, InputError):
-        return json.dumps([])

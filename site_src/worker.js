@@ -14,7 +14,7 @@ import { compileEarly } from "./js/wasm-early.js";
 const base = new URL("./", import.meta.url);
 const pyodideURL = new URL("pyodide/", base);
 // The bridge's entry point for each op the page sends (js/calc-client.js).
-const ENTRIES = { run: "run_json", reexpress: "reexpress_json", trends: "trends_json" };
+const ENTRIES = { run: "run_json", reexpress: "reexpress_json", machines: "machines_json" };
 let bridge = null;
 
 function status(state, text, extra = {}) {

@@ -22,7 +22,9 @@ context; times are milliseconds from navigation start (the page's performance.no
   changes; and, for a few, a typed change, which waits for the page's typing pause first;
 - bytes on a first visit by file, raw and as sent (the .gz twin when there is one);
 - the boot figures again with Chromium's renderers held to a quarter of the CPU (see
-  Throttle: CDP's CPU throttling does not reach workers) as a stand-in for a mid-range phone.
+  Throttle: CDP's CPU throttling does not reach workers) as a stand-in for a mid-range phone;
+- the machine kit with 200 machines and 20,000 readings on the phone, at a quarter of the
+  CPU: the machines list and a machine page with 1,000 readings (sitebuild/bench_machines).
 
 It prints one table and writes the JSON. Nothing here asserts a time: tests never do.
 """
@@ -43,7 +45,7 @@ import time
 from pathlib import Path
 from urllib.parse import urlparse
 
-from sitebuild import serve
+from sitebuild import bench_machines, serve
 
 ROOT = Path(__file__).resolve().parent.parent
 DIST = ROOT / "dist"
@@ -417,6 +419,8 @@ def table(result: dict) -> str:
     lines.append(f"| {'app own files (no Pyodide core, no snapshot)':<40} | {'':>3} | {b['app_own_raw']:>11,} "
                  f"| {b['app_own_compressed']:>11,} |")
     lines.append(f"transferred on the first visit, all requests: {b['transferred_total']:,} bytes")
+    if result.get("machine_kit"):
+        lines += ["", bench_machines.table(result["machine_kit"])]
     return "\n".join(lines)
 
 
@@ -469,6 +473,8 @@ def main(argv: list[str] | None = None) -> int:
                     app, bare = summarize(app_runs), summarize(bare_runs)
                     result["boot"][key] = {"rate": rate, "app": app, "bare": bare, "ratio": ratios(app, bare)}
                 result["latency"] = latency(browser, app_url, timed, args.changes)
+                result["machine_kit"] = bench_machines.machines_row(
+                    browser, f"{base}app/", max(args.repeat, 5), Throttle, PHONE)
                 browser.close()
         finally:
             server.shutdown()

@@ -19,6 +19,7 @@ if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
 from calc.kernel import registry, units  # noqa: E402
+from calc.machines import card as machine_card  # noqa: E402
 
 
 def render_markdown(text: str) -> str:
@@ -40,7 +41,7 @@ def _shown_default(f: registry.Field, system: str) -> str:
 class InputView:
     key: str
     label: str
-    kind: str  # number, choice, flag
+    kind: str  # number, choice, flag, text, longtext, date
     help: str
     unit_metric: str = ""
     unit_us: str = ""
@@ -49,6 +50,41 @@ class InputView:
     optional: bool = False
     choices: list = field(default_factory=list)
     checked: bool = False
+    binds: str = ""  # the machine card field this input takes
+    max_chars: int = 0  # a text field's most characters
+
+
+# A text field allowed more than this many characters is a box of lines.
+LONG_TEXT_CHARS = 200
+
+
+def input_view(f: registry.Field) -> InputView:
+    """One field (a tool's input or the machine card's) as the template shows it."""
+    kind = ("flag" if f.is_flag else "choice" if f.is_choice else
+            f.quantity if f.quantity == "date" else
+            ("longtext" if (f.max or registry.TEXT_MAX_CHARS) > LONG_TEXT_CHARS else "text")
+            if f.is_text else "number")
+    view = InputView(f.key, f.label, kind, f.help, optional=f.optional, binds=f.binds or "")
+    if f.is_flag:
+        view.checked = bool(f.default)
+    elif f.is_choice:
+        view.choices = list(f.choices)
+        view.default_metric = view.default_us = str(f.default)
+    elif f.is_text:
+        view.max_chars = int(f.max or registry.TEXT_MAX_CHARS)
+    else:
+        view.unit_metric = units.unit_label(f.quantity, "metric")
+        view.unit_us = units.unit_label(f.quantity, "us")
+        view.default_metric = _shown_default(f, "metric")
+        view.default_us = _shown_default(f, "us")
+    return view
+
+
+@dataclass
+class SectionView:
+    key: str
+    title: str
+    inputs: list[InputView]
 
 
 @dataclass
@@ -95,6 +131,7 @@ class Site:
     checklists: list[ChecklistView]
     pages: dict[str, str]
     tools: dict[str, ToolView]
+    card: list[SectionView]
 
 
 def tool_view(found: registry.Tool, help_dir: Path) -> ToolView:
@@ -102,21 +139,7 @@ def tool_view(found: registry.Tool, help_dir: Path) -> ToolView:
     help_file = help_dir / f"{found.id}.md"
     if not help_file.exists() and found.kind == "tool":
         raise SystemExit(f"build: {help_file.relative_to(ROOT)} is missing: every tool has help")
-    inputs = []
-    for f in found.inputs:
-        view = InputView(f.key, f.label, "flag" if f.is_flag else "choice" if f.is_choice else "number",
-                         f.help, optional=f.optional)
-        if f.is_flag:
-            view.checked = bool(f.default)
-        elif f.is_choice:
-            view.choices = list(f.choices)
-            view.default_metric = view.default_us = str(f.default)
-        else:
-            view.unit_metric = units.unit_label(f.quantity, "metric")
-            view.unit_us = units.unit_label(f.quantity, "us")
-            view.default_metric = _shown_default(f, "metric")
-            view.default_us = _shown_default(f, "us")
-        inputs.append(view)
+    inputs = [input_view(f) for f in found.inputs]
     outputs = [{"key": o.key, "label": o.label, "help": o.help,
                 "unit_metric": units.unit_label(o.quantity, "metric"),
                 "unit_us": units.unit_label(o.quantity, "us")} for o in found.outputs]
@@ -178,4 +201,6 @@ def load(site_dir: Path) -> Site:
                   for t in registry.of_kind("checklist").values()]
     pages = {p.stem: render_markdown(p.read_text(encoding="utf-8"))
              for p in sorted((site_dir / "pages").glob("*.md"))}
-    return Site(list(topics.items()), checklists, pages, views)
+    card = [SectionView(s.key, s.title, [input_view(f) for f in s.fields])
+            for s in machine_card.SECTIONS]
+    return Site(list(topics.items()), checklists, pages, views, card)

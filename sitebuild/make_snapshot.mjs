@@ -57,17 +57,16 @@ _check = calc.bridge.self_check()
 for _id in _tools:
     calc.bridge.reexpress_json(json.dumps({"tool": _id, "inputs": {}, "from": "metric", "to": "us"}))
 calc.bridge.catalogue()
-# Two readings of every followed output warm the log's trend charts.
-_entries = [{"at": _at, "machine": "", "tool": _id, "units": "metric",
-             "values": {_o.key: 1.0 for _o in _tool.outputs if _o.tracks}}
-            for _id, _tool in _tools.items() if any(_o.tracks for _o in _tool.outputs)
-            for _at in ("2026-01-01T08:00:00Z", "2026-02-01T08:00:00Z")]
-calc.bridge.trends_json(json.dumps({"entries": _entries, "units": "us"}))
+# The demo plant's machine pages warm the machine kit (its trend charts among them).
+_plant = json.loads(calc.bridge.machines_json(json.dumps({"op": "demo", "today": "2026-01-01"})))
+for _machine in _plant["machines"]:
+    calc.bridge.machines_json(json.dumps({"op": "machine-page", "machine": _machine, "units": "us",
+                                          "readings": _plant["readings"], "today": "2026-01-01"}))
 import random
 sys.modules["calc"]._snapshot_wheel_sha256 = ${JSON.stringify(wheelSha)}
 _report = json.dumps({"tools": len(_tools), "self_check": json.loads(_check),
                       "modules": sorted(m for m in sys.modules if m == "calc" or m.startswith("calc."))})
-del _tools, _check, _id, _wheel, _entries
+del _tools, _check, _id, _wheel, _plant, _machine
 gc.collect()
 _report
 `);

@@ -240,11 +240,39 @@ def document(width: float, height: float, title: str, desc: str, body: Iterable[
 
 
 TREND_W, TREND_H = 400.0, 240.0
-_TREND_BOX = (58.0, 34.0, 326.0, 150.0)  # left, top, width, height of the plot, viewBox units
+_TREND_BOX = (58.0, 34.0, 300.0, 150.0)  # left, top, width, height; dates fit under both ends
 _DAY_S = 86400.0
 # A trend marks each reading up to this many; past it, only the newest few (the line shows
 # the rest): a machine with a thousand readings draws one line, not a thousand dots.
-TREND_MARKS_MAX = 60
+TREND_MARKS_MAX = 24
+
+
+# A trend's line holds at most this many slices of time; a slice with more readings draws
+# its lowest and highest (in time order), so no peak is lost at the chart's width.
+TREND_SLICES = 160
+
+
+def _thinned(points: list[tuple[float, float]]) -> list[tuple[float, float]]:
+    """`points` (time, value), oldest first, cut to the lowest and highest of each of
+    TREND_SLICES slices of time when there are more points than that.
+
+    >>> pts = [(float(t), float(t % 7)) for t in range(1000)]
+    >>> thin = _thinned(pts)
+    >>> len(thin) <= 2 * TREND_SLICES and max(v for _, v in thin) == 6.0 and thin[0] == pts[0]
+    True
+    """
+    if len(points) <= 2 * TREND_SLICES:
+        return points
+    t0, t1 = points[0][0], points[-1][0]
+    width = (t1 - t0) / TREND_SLICES or 1.0
+    slices: dict[int, list[tuple[float, float]]] = {}
+    for point in points:
+        slices.setdefault(min(int((point[0] - t0) / width), TREND_SLICES - 1), []).append(point)
+    kept = []
+    for _key, found in sorted(slices.items()):
+        lowest, highest = min(found, key=lambda p: p[1]), max(found, key=lambda p: p[1])
+        kept += sorted({lowest, highest}, key=lambda p: p[0])
+    return kept
 
 
 def _date_ticks(t0: float, t1: float, tz, most: int = 4) -> list[tuple[float, str]]:
@@ -285,9 +313,11 @@ def trend(points: Sequence[tuple[datetime, float]], quantity: str, system: str, 
                           2.5 if level == "act" else 1.5, "12 5" if level == "act" else "4 4"))
         body.append(text(_TREND_BOX[0] + _TREND_BOX[2] - 4, ax.y(value) - 5, label,
                          "limit-label", anchor="end"))
-    line = [ax.point(t, v) for t, v in zip(times, values)]
+    drawn = list(zip(times, values))
+    line = [ax.point(t, v) for t, v in _thinned(drawn)]
     body.append(polyline(line, "trend-line", "#12357a", 3.0))
-    body += [marker(x, y, "trend-point", radius=5.0) for x, y in line[-TREND_MARKS_MAX:]]
+    body += [marker(*ax.point(t, v), "trend-point", radius=5.0)
+             for t, v in drawn[-TREND_MARKS_MAX:]]
     shown = ", ".join(f"{p[0].date().isoformat()}: {units.show(p[1], quantity, system)}"
                       for p in points[-6:])
     desc = f"{len(points)} readings, oldest first; the latest: {shown}."

@@ -562,10 +562,20 @@ def _order(found: Tool) -> tuple:
     return TOPICS.index(found.topic), found.title.casefold()
 
 
+_catalogue: dict[str, Tool] = {}
+
+
 def tools() -> dict[str, Tool]:
-    """Every tool and checklist, in catalogue order: by topic (TOPICS), then by title."""
+    """Every tool and checklist, in catalogue order: by topic (TOPICS), then by title.
+
+    The order is worked out once per set of declarations (a machine page asks for tools a
+    few thousand times); the dict returned is a copy, so a caller cannot change it.
+    """
     discover()
-    return {t.id: t for t in sorted(_TOOLS.values(), key=_order)}
+    if len(_catalogue) != len(_TOOLS) or any(_catalogue.get(k) is not t for k, t in _TOOLS.items()):
+        _catalogue.clear()
+        _catalogue.update({t.id: t for t in sorted(_TOOLS.values(), key=_order)})
+    return dict(_catalogue)
 
 
 def of_kind(kind: str) -> dict[str, Tool]:
@@ -574,7 +584,8 @@ def of_kind(kind: str) -> dict[str, Tool]:
 
 
 def get(tool_id: str) -> Tool:
-    found = tools().get(tool_id)
+    discover()
+    found = _TOOLS.get(tool_id) if isinstance(tool_id, str) else None
     if found is None:
         raise InputError("tool", "no tool {typed}; run `python -m calc tools` for the list",
                          typed=typed(tool_id))

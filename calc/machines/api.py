@@ -83,6 +83,29 @@ def card_view(request: dict) -> dict:
             "summary": cards.summary(machine["card"], system)}
 
 
+def card_reexpress(request: dict) -> dict:
+    """A card being typed (``"card"``) re-expressed from ``"from"`` to ``"to"`` units for
+    its form: ``{"values"}``; a field that does not parse is left as typed."""
+    raw = request.get("card") if isinstance(request.get("card"), dict) else {}
+    for key in ("from", "to"):
+        if request.get(key) not in units.SYSTEMS:
+            raise InputError(key, "is the unit system, metric or us")
+    source, target = request["from"], request["to"]
+    values = {}
+    for key, typed in raw.items():
+        f = cards.FIELDS.get(key)
+        if f is None:
+            continue
+        values[key] = typed
+        if f.is_number and typed not in (None, "") and str(typed).strip():
+            try:
+                metric = units.to_metric(units.parse_number(typed, key), f.quantity, source)
+            except InputError:
+                continue
+            values[key] = units.format_input(units.from_metric(metric, f.quantity, target))
+    return {"ok": True, "values": values}
+
+
 def fill(request: dict) -> dict:
     """What a machine's card puts into one tool's form: ``"values"`` {key: text in the
     reader's units} for every bound input the card knows and this tool takes, ``"misfits"``
@@ -153,13 +176,24 @@ def save(request: dict) -> dict:
                                request.get("time"), request.get("note") or "")
     return {"ok": True, "record": made["record"],
             "answer": present(made["tool"], made["result"], system),
-            "digest": condition.digest_add(request.get("digest"), made["record"])}
+            "digest": condition.digest_add(request.get("digest"), made["record"],
+                                           *_facts_and_card(made["record"], request))}
+
+
+def _facts_and_card(record: dict, request: dict) -> tuple[dict | None, dict | None]:
+    machine = _machine(request, required=False)
+    if machine is None:
+        return None, None
+    return cards.facts(machine["card"])[0], machine["card"]
 
 
 def digest(request: dict) -> dict:
-    """A machine's digest made again from all its ``"readings"`` (after a delete or an
-    import): ``{"digest"}``."""
-    return {"ok": True, "digest": condition.digest(_list(request, "readings"))}
+    """A machine's digest made again from all its ``"readings"`` and its ``"machine"`` record
+    (after a delete, an import or a change of its card): ``{"digest"}``."""
+    machine = _machine(request)
+    return {"ok": True, "digest": condition.digest(_list(request, "readings"),
+                                                   cards.facts(machine["card"])[0],
+                                                   machine["card"])}
 
 
 def reading(request: dict) -> dict:
@@ -177,10 +211,11 @@ def readings(request: dict) -> dict:
     return {"ok": True, "views": [records.view(r, system) for r in _list(request, "records")]}
 
 
-def _latest_rows(facts: dict, found: list[dict], system: str) -> list[dict]:
+def _latest_rows(facts: dict, found: list[dict], system: str,
+                 points: dict | None = None) -> list[dict]:
     show = _show(system)
     rows = []
-    for p in condition.latest(facts, found):
+    for p in condition.latest(facts, found, points):
         tracked = registry.TRACKED[p["tracks"]]
         verdict = p["verdict"]
         tool_id = p["reading"].get("tool")
@@ -212,7 +247,8 @@ def machine_page(request: dict) -> dict:
     machine, system, today = _machine(request), _system(request), _today(request)
     found = [r for r in _list(request, "readings") if r.get("machine") == machine["id"]]
     facts = cards.facts(machine["card"])[0]
-    latest = _latest_rows(facts, found, system)
+    points = condition.series(found)  # once, for the latest values and the trends
+    latest = _latest_rows(facts, found, system, points)
     levels = [row["level"] for row in latest if row["level"]]
     return {
         "ok": True, "id": machine["id"], "name": machine["card"].get("name", ""),
@@ -220,7 +256,7 @@ def machine_page(request: dict) -> dict:
         "summary": cards.summary(machine["card"], system),
         "level": max(levels, key=LEVELS.index) if levels else None,
         "latest": latest,
-        "trends": condition.trends(facts, found, system),
+        "trends": condition.trends(facts, found, system, points=points),
         "due": _due_rows(facts, found, today, system),
         "count": len(found),
         "tools": [{"id": t.id, "title": t.title, "kind": t.kind,
@@ -233,9 +269,11 @@ def machine_list(request: dict) -> dict:
     """The machines list: for each machine its name, site, worst latest verdict, number of
     readings, newest reading and the first thing due. ``"digests"`` {machine id: digest
     (`condition.digest`)} stand for each machine's readings; without them, ``"readings"``
-    (all, or slim: ``"machine"``, ``"time"``, ``"tracked"``) are used."""
+    (all, or slim: ``"machine"``, ``"time"``, ``"tracked"``) are used. A digest may come
+    without its ``"readings"``: when its verdicts no longer hold (a new calc, a card edited),
+    its machine is listed in ``"stale"``, for the page to send its digest whole."""
     system, today = _system(request), _today(request)
-    digests = request.get("digests")
+    digests, stale = request.get("digests"), []
     if not isinstance(digests, dict):
         by_machine: dict[str, list[dict]] = {}
         for r in _list(request, "readings"):
@@ -244,24 +282,35 @@ def machine_list(request: dict) -> dict:
     rows = []
     for machine in _list(request, "machines"):
         card = machine.get("card") if isinstance(machine.get("card"), dict) else {}
-        try:
-            facts = cards.facts(cards.parse(card, "metric"))[0]
-        except InputError:
-            facts = {}
         known = digests.get(machine.get("id"))
         known = known if isinstance(known, dict) else condition.digest([])
         found = [r for r in known.get("readings") or [] if isinstance(r, dict)]
-        latest = condition.latest(facts, found)
-        levels = [p["verdict"].level for p in latest if p["verdict"]]
-        due = _due_rows(facts, found, today, system)
+        # The verdicts the digest holds for this card and this calc; else worked out again
+        # from the readings it keeps (a card edited elsewhere, a new version of calc).
+        held = condition.fresh_summary(known, card)
+        try:
+            facts = cards.facts(card if held else cards.parse(card, "metric"))[0]
+        except InputError:
+            facts = {}
+        if held is None and "readings" not in known and known.get("count"):
+            stale.append(machine.get("id"))  # sent without its readings: ask for them again
+            held = {"level": None, "sample": {"time": None, "sooner": False}}
+        elif held is None:
+            held = condition.summary(facts, found, card)
+        sample = held["sample"]
+        at = condition.when(sample.get("time")) if sample.get("time") else None
+        show = _show(system)
+        due = [{"key": d.key, "label": d.label, "on": d.on.isoformat() if d.on else None,
+                "state": d.state, "says": d.says.render(show)}
+               for d in condition.due(facts, found, today, (at, bool(sample.get("sooner"))))]
         rows.append({"id": machine.get("id"), "name": card.get("name", ""),
                      "site": card.get("site", ""), "demo": bool(machine.get("demo")),
-                     "level": max(levels, key=LEVELS.index) if levels else None,
+                     "level": held["level"],
                      "readings": int(known.get("count") or 0), "last": known.get("last"),
                      "due": due[0] if due else None,
                      "overdue": sum(d["state"] == "overdue" for d in due)})
     rows.sort(key=lambda r: (r["name"].casefold(), r["id"] or ""))
-    return {"ok": True, "machines": rows}
+    return {"ok": True, "machines": rows, "stale": stale}
 
 
 def visit(request: dict) -> dict:
@@ -284,9 +333,10 @@ def _with_digests(made: dict) -> dict:
     by_machine: dict[str, list[dict]] = {m["id"]: [] for m in made["machines"]}
     for r in made["readings"]:
         by_machine.setdefault(r.get("machine"), []).append(r)
-    return {"ok": True, **made, "digests": {key: condition.digest(found)
-                                            for key, found in by_machine.items()
-                                            if key is not None}}
+    by_id = {m["id"]: m for m in made["machines"]}
+    return {"ok": True, **made, "digests": {
+        key: condition.digest(found, cards.facts(by_id[key]["card"])[0], by_id[key]["card"])
+        for key, found in by_machine.items() if key in by_id}}
 
 
 def demo_plant(request: dict) -> dict:
@@ -300,7 +350,8 @@ def migrate(request: dict) -> dict:
 
 
 OPS = {
-    "card-form": card_form, "card-check": card_check, "card-view": card_view, "fill": fill,
+    "card-form": card_form, "card-check": card_check, "card-view": card_view,
+    "card-reexpress": card_reexpress, "fill": fill,
     "to-card": to_card, "run": run, "save": save, "reading": reading, "readings": readings,
     "machine-page": machine_page, "machines": machine_list, "visit": visit, "csv": csv,
     "demo": demo_plant, "migrate": migrate, "digest": digest,

@@ -20,12 +20,15 @@ readings draws its trends without running a tool again.
 
 from __future__ import annotations
 
+import hashlib
+import json
 import math
 from dataclasses import dataclass
 from datetime import date, datetime, timedelta
 
+from .. import __version__
 from ..kernel import chart, registry, units
-from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, Q, Text, Verdict, text
+from ..kernel.result import COMMON_PRACTICE, FROM_MEMORY, LEVELS, Q, Text, Verdict, text
 from ..methods.viscosity import walther_fit, walther_temperature
 from ..tools.condition import SATURATION_BANDS
 from ..tools.cleanliness import CLEANLINESS_BANDS
@@ -76,9 +79,14 @@ class Limits:
                 for index, level in ((0, "watch"), (1, "act"))]
 
 
+_LIMITS: dict[tuple[str, str], float] = {}
+
+
 def _limit(tool_id: str, key: str) -> float:
     """A limit input's default: the tools' own limits are the machine page's."""
-    return registry.get(tool_id).field(key).default
+    if (tool_id, key) not in _LIMITS:
+        _LIMITS[tool_id, key] = registry.get(tool_id).field(key).default
+    return _LIMITS[tool_id, key]
 
 
 def _band_bound(bands, level: str) -> float:
@@ -273,11 +281,11 @@ def _number(value: object) -> bool:
     return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
 
 
-def latest(facts: dict, readings: list[dict]) -> list[dict]:
+def latest(facts: dict, readings: list[dict], points: dict | None = None) -> list[dict]:
     """The newest value of each followed quantity, in TRACKED order, with its verdict
     (metric; `shown` renders it)."""
     out = []
-    points = series(readings)
+    points = series(readings) if points is None else points
     for key in registry.TRACKED:
         if key not in points:
             continue
@@ -288,12 +296,13 @@ def latest(facts: dict, readings: list[dict]) -> list[dict]:
     return out
 
 
-def trends(facts: dict, readings: list[dict], system: str, title_suffix: str = "") -> list[dict]:
+def trends(facts: dict, readings: list[dict], system: str, title_suffix: str = "",
+           points: dict | None = None) -> list[dict]:
     """A chart of each followed quantity with two or more points, against its limits,
     drawn in `system` units."""
     show = lambda v, q: units.show(v, q, system)  # noqa: E731
     drawn = []
-    for key, points in series(readings).items():
+    for key, points in (series(readings) if points is None else points).items():
         if len(points) < 2:
             continue
         tracked = registry.TRACKED[key]
@@ -339,21 +348,28 @@ def _due(key: str, label: str, last: date | None, every: float | None, today: da
                                            why=Q(why, "text")))
 
 
-def due(facts: dict, readings: list[dict], today: date) -> list[Due]:
-    """The next oil sample, filter change and oil change, soonest first, from the card's
-    intervals and dates (`facts`, as `card.facts` gives them) and the newest sample on
-    record."""
+def last_sample(facts: dict, readings: list[dict]) -> tuple[datetime | None, bool]:
+    """(The time of the newest oil sample, or None; whether any of its results was past a
+    watch or act limit, which brings the next sample forward)."""
     samples = [(when(r.get("time")), r) for r in readings
                if any(k in SAMPLE_QUANTITIES for k in (r.get("tracked") or {}))]
     samples = [(t, r) for t, r in samples if t is not None]
-    last_sample = max(samples, key=lambda s: s[0]) if samples else None
-    sooner = False
-    if last_sample is not None:
-        newest = [p for p in latest(facts, [last_sample[1]])
-                  if p["tracks"] in SAMPLE_QUANTITIES]
-        sooner = any(p["verdict"] is not None and p["verdict"].level != "ok" for p in newest)
+    if not samples:
+        return None, False
+    at, reading = max(samples, key=lambda s: s[0])
+    verdicts = [judge(k, float(v), facts) for k, v in reading["tracked"].items()
+                if k in SAMPLE_QUANTITIES and _number(v)]
+    return at, any(v is not None and v.level != "ok" for v in verdicts)
+
+
+def due(facts: dict, readings: list[dict], today: date,
+        sample: tuple[datetime | None, bool] | None = None) -> list[Due]:
+    """The next oil sample, filter change and oil change, soonest first, from the card's
+    intervals and dates (`facts`, as `card.facts` gives them) and the newest sample on
+    record (`sample`, as `last_sample` gives it, when already known)."""
+    at, sooner = last_sample(facts, readings) if sample is None else sample
     found = [
-        _due("sample", "Oil sample", last_sample[0].date() if last_sample else None,
+        _due("sample", "Oil sample", at.date() if at else None,
              facts.get("sample_days"), today, "No oil sample on record yet: take one.",
              sooner),
         _due("filter", "Filter change", _date(facts.get("filter_changed")),
@@ -366,17 +382,34 @@ def due(facts: dict, readings: list[dict], today: date) -> list[Due]:
     return sorted(found, key=lambda d: (d.on is not None, d.on or today))
 
 
-def digest(readings: list[dict], count: int | None = None) -> dict:
+def card_key(card: dict) -> str:
+    """A short fingerprint of a card: a digest's verdicts hold for the card they were
+    worked out with. Numbers count by value (a card that went through JavaScript comes
+    back with 2 where it had 2.0).
+
+    >>> card_key({"name": "A", "tees": 2.0}) == card_key({"tees": 2, "name": "A"})
+    True
+    """
+    same = {k: float(v) if isinstance(v, (int, float)) and not isinstance(v, bool) else v
+            for k, v in card.items()}
+    return hashlib.sha256(json.dumps(same, sort_keys=True).encode()).hexdigest()[:16]
+
+
+def digest(readings: list[dict], facts: dict | None = None, card: dict | None = None,
+           count: int | None = None) -> dict:
     """What the machines list needs of one machine's readings, small enough to keep beside
     the machine: ``{"count", "last", "readings"}`` where ``readings`` are the few (slim)
     readings that decide `latest` and `due` (the newest of each followed quantity and the
-    newest sample), so the list never reads every reading.
+    newest sample), so the list never reads every reading. Given the machine's `card` and
+    its `facts`, also what the list shows of them, worked out now: ``"level"`` (the worst
+    latest verdict), ``"sample"`` (the newest sample's time and whether it brings the next
+    forward), and the ``"calc"`` version and ``"card"`` fingerprint they hold for.
 
     >>> r = [{"id": str(d), "time": f"2026-01-0{d}T08:00:00Z", "tool": "t",
     ...       "tracked": {"water_ppm": 100.0 * d}} for d in (1, 2, 3)]
-    >>> small = digest(r)
-    >>> small["count"], [x["id"] for x in small["readings"]]
-    (3, ['3'])
+    >>> small = digest(r, {}, {"name": "Saw 2"})
+    >>> small["count"], [x["id"] for x in small["readings"]], small["level"]
+    (3, ['3'], 'watch')
     """
     dated = [(when(r.get("time")), i, r) for i, r in enumerate(readings)]
     dated = sorted((d for d in dated if d[0] is not None), key=lambda d: (d[0], d[1]))
@@ -390,15 +423,38 @@ def digest(readings: list[dict], count: int | None = None) -> dict:
     chosen = sorted({index: reading for index, reading in keep.values()}.items())
     slim = [{k: reading.get(k) for k in ("id", "tool", "time", "tracked", "machine")}
             for _index, reading in chosen]
-    return {"count": len(readings) if count is None else count,
+    made = {"count": len(readings) if count is None else count,
             "last": dated[-1][2].get("time") if dated else None, "readings": slim}
+    if facts is not None and card is not None:
+        made.update(summary(facts, slim, card))
+    return made
 
 
-def digest_add(known: dict | None, reading: dict) -> dict:
+def summary(facts: dict, readings: list[dict], card: dict) -> dict:
+    """The digest's verdict part (see `digest`)."""
+    levels = [p["verdict"].level for p in latest(facts, readings) if p["verdict"]]
+    at, sooner = last_sample(facts, readings)
+    return {"level": max(levels, key=LEVELS.index) if levels else None,
+            "sample": {"time": at.isoformat() if at else None, "sooner": sooner},
+            "calc": __version__, "card": card_key(card)}
+
+
+def digest_add(known: dict | None, reading: dict, facts: dict | None = None,
+               card: dict | None = None) -> dict:
     """`known` (a digest) with one more reading."""
     known = known if isinstance(known, dict) else {}
     kept = [r for r in known.get("readings") or [] if isinstance(r, dict)]
-    return digest(kept + [reading], int(known.get("count") or 0) + 1)
+    return digest(kept + [reading], facts, card, int(known.get("count") or 0) + 1)
+
+
+def fresh_summary(known: dict, card: dict) -> dict | None:
+    """A digest's verdict part if it still holds (same calc, same card), else None."""
+    if known.get("calc") != __version__ or known.get("card") != card_key(card):
+        return None
+    sample = known.get("sample") if isinstance(known.get("sample"), dict) else None
+    if sample is None or known.get("level") not in (None, *LEVELS):
+        return None
+    return {"level": known.get("level"), "sample": sample}
 
 
 def _date(value: object) -> date | None:

@@ -152,7 +152,8 @@ def shown_inputs(found: registry.Tool, values: dict, from_card: list, system: st
         else:
             shown = units.show(float(value), f.quantity, system)
         rows.append({"key": f.key, "label": f.label, "text": shown, "group": f.group,
-                     "flag": f.is_flag, "from_card": f.key in (from_card or [])})
+                     "flag": f.is_flag, "from_card": f.key in (from_card or []),
+                     "at_default": value == f.default, "tracks": f.tracks})
     return rows
 
 
@@ -181,7 +182,10 @@ def view(record: dict, system: str) -> dict:
                 "tracked": record.get("tracked") or {}}
     shown = present(found, result, system)
     return {**meta(record), **shown, "title": found.title, "kind": found.kind,
-            "inputs": shown_inputs(found, values, record.get("from_card"), system)}
+            "inputs": shown_inputs(found, values, record.get("from_card"), system),
+            "outputs": [{"key": o.key, "label": o.label, "text": shown["text"][o.key],
+                         "headline": o.headline, "tracks": o.tracks}
+                        for o in found.outputs if o.key in shown["text"]]}
 
 
 def _as_saved(record: dict) -> dict:

@@ -90,16 +90,21 @@ def _reading(shown: dict) -> dict:
                 "outputs": [{"label": k, "text": v} for k, v in (shown.get("text") or {}).items()],
                 "verdicts": [{"level": None, "message": v}
                              for v in shown.get("verdicts_as_saved", [])],
-                "inputs": [], "seen": [], "causes": []}
+                "inputs": [], "from_card": 0, "seen": [], "causes": []}
     inputs = shown.get("inputs", [])
-    labels = {o["key"]: o["label"] for o in shown.get("outputs", [])}
+    typed = [i for i in inputs if not i["flag"] and not i["from_card"]
+             and (i["tracks"] or not i["at_default"])]
     return {
         **base,
-        "inputs": [{"label": i["label"], "text": i["text"], "from_card": i["from_card"]}
-                   for i in inputs if not i["flag"]],
+        # What was read: what the reading measured and what differs from the tool's own
+        # starting values; the card's facts are at the head of the report.
+        "inputs": [{"label": i["label"], "text": i["text"]} for i in typed],
+        "from_card": sum(1 for i in inputs if i["from_card"]),
         "seen": [i["label"] for i in inputs if i["flag"]],
-        "outputs": [{"label": labels.get(k, k), "text": v}
-                    for k, v in shown["text"].items() if v != "n/a"],
+        # What it found at a glance: the headline values and the followed quantities (the
+        # machine page and the CSV have every value).
+        "outputs": [{"label": o["label"], "text": o["text"]} for o in shown["outputs"]
+                    if o["text"] != "n/a" and (o["headline"] or o["tracks"])],
         "verdicts": [{"level": v["level"], "message": v["message"]} for v in shown["verdicts"]],
         "causes": [{"title": c["title"], "reasons": c["reasons"]}
                    for c in shown.get("ranked", []) if c["score"] > 0],

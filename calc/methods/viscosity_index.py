@@ -201,6 +201,20 @@ def kv100_from_vi(kv40_cst: float, vi: float) -> float:
     >>> round(kv100_from_vi(46.0, 100.0), 3)
     6.76
     """
+    key = (kv40_cst, vi)
+    if key not in _KV100_FOUND:
+        if len(_KV100_FOUND) > 4096:  # a machine page asks for a few: keep the memory small
+            _KV100_FOUND.clear()
+        _KV100_FOUND[key] = _kv100_from_vi(kv40_cst, vi)
+    return _KV100_FOUND[key]
+
+
+# kv100_from_vi's answers so far: a pure function of its two numbers, asked again for every
+# machine on every list.
+_KV100_FOUND: dict[tuple[float, float], float] = {}
+
+
+def _kv100_from_vi(kv40_cst: float, vi: float) -> float:
     lowest = kv40_from_vi(KV100_MIN_CST, vi)
     if lowest > kv40_cst:
         raise InputError("kv40", "an oil of VI {vi} with KV100 at least {least} (the least D2270 "

@@ -5,6 +5,13 @@ import { fieldOf } from "./fields.js";
 
 export const LEVEL_WORD = { ok: "OK", watch: "Watch", act: "Act" };
 
+// An element with its properties and children: el("p", { className: "x" }, "text", child).
+export const el = (tag, props = {}, ...children) => {
+  const node = Object.assign(document.createElement(tag), props);
+  node.append(...children);
+  return node;
+};
+
 export function fillList(list, items, fill) {
   list.replaceChildren(...items.map((item) => { const li = document.createElement("li"); fill(li, item); return li; }));
 }
@@ -29,7 +36,7 @@ function showErrors(form, state, errors) {
   state.dataset.kind = "error";
 }
 
-function verdictItem(li, v) {
+export function verdictItem(li, v) {
   li.className = "verdict level-" + v.level;
   const badge = Object.assign(document.createElement("span"), { className: "badge", textContent: LEVEL_WORD[v.level] });
   const basis = Object.assign(document.createElement("span"), { className: "basis", textContent: " (" + v.basis + ")" });

@@ -3,36 +3,84 @@
 // drawing comes from calc through the worker.
 import { startCalculator } from "./calc-client.js";
 import { showStatus } from "./status.js";
-import { startUnits } from "./units.js";
+import { startUnits, currentUnits } from "./units.js";
 import { computeVisible, startForms } from "./forms.js";
 import { showBackLink, showReadings, startChecklists } from "./checklists.js";
 import { renderLog, startLog } from "./log-view.js";
 import { startBugReports } from "./bug-reports.js";
-import { startJob } from "./job.js";
+import { migrateOldLog, onKitChange, startKit } from "./kit.js";
+import { onMachineChange, startMachinePick } from "./machine-pick.js";
+import { fillVisible, refillAll, startCardFill } from "./card-fill.js";
+import { reexpressCard, renderMachines, showCard, startMachines } from "./machines-view.js";
+import { renderMachine, showMachine, startMachineView } from "./machine-view.js";
+import { showVisit, startVisit } from "./visit-view.js";
 import { shownView, startRouting } from "./routing.js";
 import { startUpdates } from "./updates.js";
 
 const calculator = startCalculator((msg) => {
   showStatus(msg);
-  if (msg.state === "ready") computeVisible();
+  if (msg.state === "ready") ready();
 });
+startKit(calculator);
 
-function showView(view) {
-  if (view.dataset.view === "log") renderLog();
+// What each view draws when shown (and again when the units or the kit change).
+const DRAW = {
+  log: () => renderLog(),
+  machines: () => renderMachines(),
+  machine: (param) => showMachine(param),
+  card: (param) => showCard(param),
+  visit: () => showVisit(),
+};
+
+async function showView(view, param) {
+  DRAW[view.dataset.view]?.(param);
   if (view.classList.contains("tool")) showBackLink(view);
   if (view.classList.contains("checklist")) showReadings(view);
+  if (view.querySelector("form[data-tool]") && document.documentElement.dataset.ready) await fillVisible();
   computeVisible();
 }
 
-startUnits(calculator, () => {
-  if (shownView()?.dataset.view === "log") renderLog(); // the trends, redrawn in the new units
+async function ready() {
+  // The earlier build's log becomes machines and readings once, before anything is shown.
+  try {
+    const moved = await migrateOldLog();
+    if (moved) {
+      document.querySelector("[data-log-status]").textContent = `The ${moved.readings.length} saved results of the `
+        + `earlier version are here, each under its machine (${moved.machines.length} named); the earlier log is kept too.`;
+    }
+  } catch (err) {
+    console.warn("the earlier log was not moved:", err);
+  }
+  await refillAll();
+  computeVisible();
+  const view = shownView();
+  if (view && DRAW[view.dataset.view]) DRAW[view.dataset.view](view.dataset.param);
+}
+
+startUnits(calculator, async () => {
+  await fillVisible();
+  await reexpressCard(currentUnits());
+  const view = shownView();
+  if (view && DRAW[view.dataset.view] && view.dataset.view !== "card") DRAW[view.dataset.view](view.dataset.param);
   computeVisible();
 });
 startForms(calculator);
-startJob();
 startChecklists();
-startLog(calculator);
+startLog();
 startBugReports();
-startRouting(showView);
+startMachines();
+startMachineView();
+startVisit();
+startCardFill(computeVisible);
+onMachineChange(async () => { await refillAll(); computeVisible(); });
+onKitChange(() => {
+  const view = shownView();
+  if (view?.dataset.view === "machines") renderMachines();
+  if (view?.dataset.view === "machine") renderMachine(view.dataset.param);
+});
 startUpdates(calculator.ready);
-document.documentElement.dataset.shell = "ready";
+// The chosen machine first (its name in the bar), then the view the address asks for.
+startMachinePick().catch((err) => console.warn("no machine chosen:", err)).then(() => {
+  startRouting(showView);
+  document.documentElement.dataset.shell = "ready";
+});

@@ -38,7 +38,7 @@ export function startCalculator(onStatus) {
     ready,
     run: (tool, inputs, units) => ask("run", { tool, inputs, units }),
     reexpress: (tool, inputs, from, to) => ask("reexpress", { tool, inputs, from, to }),
-    // Log entries ({at, machine, tool, values, units}) -> [{machine, tracks, title, points, svg}].
-    trends: (entries, units) => ask("trends", { entries, units }),
+    // The machine kit's requests (calc.machines.api): op and its request -> its answer.
+    machines: (op, request) => ask("machines", { op, ...request }),
   };
 }

@@ -1,5 +1,7 @@
 // The values of a tool's form: read as the bridge wants them, reset to the defaults of a unit
 // system, and kept on the device as typed, so a reload, a killed tab or a new build loses nothing.
+// A field the machine card filled (data-from-card) reads as blank: calc takes the card's value
+// itself, and says so; only what was typed is kept.
 import { device } from "./store.js";
 
 const keptKey = (form) => "sumpside.form." + form.dataset.tool;
@@ -11,8 +13,9 @@ export const defaultOf = (el, units) => el.dataset["default" + (units === "us" ?
 
 export function readInputs(form) {
   const inputs = {};
-  for (const el of form.querySelectorAll("input[name], select[name]")) {
-    inputs[el.name] = el.type === "checkbox" ? (el.checked ? "yes" : "no") : el.value;
+  for (const el of form.querySelectorAll("input[name], select[name], textarea[name]")) {
+    if (el.dataset.fromCard) inputs[el.name] = "";
+    else inputs[el.name] = el.type === "checkbox" ? (el.checked ? "yes" : "no") : el.value;
   }
   return inputs;
 }
@@ -28,6 +31,7 @@ export function restoreForm(form, units) {
     const el = fieldOf(form, name);
     if (!el) continue;
     if (el.type === "checkbox") el.checked = value === "yes";
+    else if (value === "" && defaultOf(el, units)) continue; // blank means the default: show it
     else if (el.tagName !== "SELECT" || [...el.options].some((o) => o.value === value)) el.value = value;
   }
 }

@@ -6,7 +6,9 @@ import { currentUnits } from "./units.js";
 import { showAnswer } from "./answers.js";
 import { answered } from "./checklists.js";
 import { keepBugReport } from "./bug-reports.js";
-import { saveToLog } from "./log-view.js";
+import { saveReading } from "./log-view.js";
+import { ask } from "./kit.js";
+import { currentMachine } from "./machine-pick.js";
 
 const DEBOUNCE_MS = 250;
 const root = document.documentElement;
@@ -23,7 +25,11 @@ async function compute(form) {
   form.dataset.seq = String(seq);
   if (!root.dataset.ready) form.querySelector("[data-state]").textContent = "The calculator is starting; your answer follows.";
   const asked = { inputs: readInputs(form), units: currentUnits() };
-  const answer = await calculator.run(form.dataset.tool, asked.inputs, asked.units);
+  const machine = currentMachine();
+  // With a machine chosen, calc fills the inputs left to the card from the card itself.
+  const answer = machine
+    ? await ask("run", { tool: form.dataset.tool, inputs: asked.inputs, units: asked.units, machine })
+    : await calculator.run(form.dataset.tool, asked.inputs, asked.units);
   if (form.dataset.seq !== String(seq)) return; // a newer request is on its way
   receive(form, answer, asked);
 }
@@ -43,7 +49,13 @@ export function receive(form, answer, asked) {
 
 function bindForm(form) {
   let timer = null;
-  const soon = () => { clearTimeout(timer); keepForm(form, currentUnits()); timer = setTimeout(() => compute(form), DEBOUNCE_MS); };
+  const saved = form.querySelector("[data-saved]");
+  const soon = (event) => {
+    if (event.type === "input") saved.textContent = ""; // a new reading is being typed
+    clearTimeout(timer);
+    keepForm(form, currentUnits());
+    timer = setTimeout(() => compute(form), DEBOUNCE_MS);
+  };
   form.addEventListener("input", soon);
   form.addEventListener("change", soon);
   form.addEventListener("submit", (event) => { event.preventDefault(); clearTimeout(timer); compute(form); });
@@ -52,7 +64,7 @@ function bindForm(form) {
     resetForm(form, currentUnits());
     compute(form);
   });
-  form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveToLog(form, lastAnswers.get(form)));
+  form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveReading(form, lastAnswers.get(form)));
   form.querySelector('[data-action="print"]')?.addEventListener("click", () => window.print());
 }
 

@@ -121,3 +121,24 @@ def copy_dist(dist: Path, where: Path) -> Path:
     target = where / "dist"
     shutil.copytree(dist, target)
     return target
+
+
+def add_machine(page, card: dict, units: str = "metric") -> str:
+    """A machine made through the page's own kit (calc checks the card); returns its id."""
+    return page.evaluate("""async ([card, units]) => {
+      const kit = await import(new URL("js/kit.js", document.baseURI).href);
+      const made = await kit.ask("card-check", { card, units, time: kit.localStamp() });
+      if (!made.ok) throw new Error(JSON.stringify(made.errors));
+      await kit.saveMachine(made.machine);
+      return made.machine.id;
+    }""", [card, units])
+
+
+def choose_machine(page, machine_id: str) -> None:
+    """Pick a machine in the bar, then wait until the forms in view are filled from its card."""
+    page.wait_for_function("id => [...document.querySelectorAll('#job-machine option')].some(o => o.value === id)",
+                           arg=machine_id)
+    page.select_option("#job-machine", machine_id)
+    page.wait_for_function("() => [...document.querySelectorAll('.view:not([hidden]) form[data-tool] "
+                           "[data-for-machine]')].every(p => !p.hidden)", timeout=BOOT_TIMEOUT_MS)
+

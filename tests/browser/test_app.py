@@ -8,7 +8,8 @@ import pytest
 from calc import bridge
 from calc.kernel import registry
 
-from .conftest import BOOT_TIMEOUT_MS, PHONE, Watch, open_app, wait_answer
+from .conftest import (BOOT_TIMEOUT_MS, PHONE, Watch, add_machine, choose_machine, open_app,
+                       wait_answer)
 
 TOOLS = [t for t in registry.tools() if not t.startswith("checklist-")]
 
@@ -188,7 +189,7 @@ def test_a_tool_prints_with_machine_date_and_verdict(page, base_url, watch):
     pypdf = pytest.importorskip("pypdf")
     import io
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
-    page.fill("#job-machine", "Container handler 12, quay 3")
+    choose_machine(page, add_machine(page, {"name": "Container handler 12, quay 3"}))
     kv = wait_answer(page, "viscosity-at-temperature", "kv")
     page.emulate_media(media="print")
     reader = pypdf.PdfReader(io.BytesIO(page.pdf(format="A4")))

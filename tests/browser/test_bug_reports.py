@@ -53,7 +53,7 @@ def test_a_fault_is_shown_beside_the_form_and_kept(page, base_url, watch, bug_an
     assert any("ZeroDivisionError" in e and TOOL in e for e in watch.errors), watch.errors
     # The answer before the fault is not saved in its place.
     form.locator('[data-action="save"]').click()
-    assert "Nothing to save yet" in form.locator("[data-state]").inner_text()
+    assert "Nothing to save yet" in form.locator("[data-saved]").inner_text()
 
     kept = _kept(page)
     assert len(kept) == 1

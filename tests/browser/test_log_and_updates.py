@@ -6,17 +6,24 @@ import json
 import re
 from xml.etree import ElementTree
 
-from calc import bridge
+from calc.machines import card, condition
 
-from .conftest import BOOT_TIMEOUT_MS, copy_dist, open_app, wait_answer
+from .conftest import BOOT_TIMEOUT_MS, add_machine, choose_machine, copy_dist, open_app, wait_answer
 
 
-def _save_one(page, tool="viscosity-at-temperature", key="kv"):
+READINGS_OF = """async (id) => (await import(new URL("js/kit.js", document.baseURI).href)).readingsOf(id)"""
+
+
+def _save_one(page, tool="viscosity-at-temperature", key="kv", machine=None):
+    """Save the tool's answer as a reading of `machine` (made and chosen here if not given)."""
     wait_answer(page, tool, key)
-    page.fill("#job-machine", "Press 7, north bay")
+    if machine is None:
+        machine = add_machine(page, {"name": "Press 7, north bay"})
+        choose_machine(page, machine)
     page.click(f'form[data-tool="{tool}"] [data-action="save"]')
     page.wait_for_function("""t => document.querySelector(
-        `form[data-tool="${t}"] [data-state]`).textContent.includes('Saved')""", arg=tool)
+        `form[data-tool="${t}"] [data-saved]`).textContent.includes('Saved')""", arg=tool)
+    return machine
 
 
 def test_log_survives_reload_and_exports(page, base_url, watch):
@@ -26,14 +33,19 @@ def test_log_survives_reload_and_exports(page, base_url, watch):
     open_app(page, base_url, "#/log")
     entry = page.locator("[data-log-list] article")
     entry.first.wait_for()
-    assert "Press 7, north bay" in entry.first.inner_text()
+    text = entry.first.inner_text()
+    assert "Press 7, north bay" in text and "Viscosity at oil temperature" in text  # labels, not keys
+    open_app(page, base_url, "#/machines")
     with page.expect_download() as download:
-        page.click('[data-log="export-json"]')
+        page.click('[data-kit="export-json"]')
     exported = json.loads(open(download.value.path(), encoding="utf-8").read())
-    assert exported[0]["tool"] == "viscosity-at-temperature" and exported[0]["text"]["kv"].endswith("cSt")
+    assert exported["format"] == "sumpside-export"
+    assert exported["readings"][0]["tool"] == "viscosity-at-temperature"
+    assert exported["machines"][0]["card"]["name"] == "Press 7, north bay"
     with page.expect_download() as download:
-        page.click('[data-log="export-csv"]')
-    assert "viscosity-at-temperature" in open(download.value.path(), encoding="utf-8").read()
+        page.click('[data-kit="export-csv"]')
+    csv_text = open(download.value.path(), encoding="utf-8-sig").read()
+    assert csv_text.startswith("Time,Machine,") and "Viscosity at temperature" in csv_text
     assert not watch.errors
 
 
@@ -56,25 +68,26 @@ def _svg_text(svg: str) -> str:
     return "".join(ElementTree.fromstring(svg).itertext())
 
 
-def test_two_saved_readings_draw_a_trend(page, base_url, watch):
+def test_two_saved_readings_draw_a_trend_on_the_machine_page(page, base_url, watch):
     # viscosity-grade's kv40 is a followed quantity: two saved readings make calc draw a trend.
     tool = "viscosity-grade"
     open_app(page, base_url, f"#/tool/{tool}")
-    _save_one(page, tool, "kv40")
+    machine = _save_one(page, tool, "kv40")
     first = wait_answer(page, tool, "kv40")
     page.locator(f'form[data-tool="{tool}"] [name="kv"]').fill("52")
     page.wait_for_function("""([t, old]) => document.querySelector(
         `form[data-tool="${t}"] [data-out="kv40"]`).textContent !== old""", arg=[tool, first])
-    _save_one(page, tool, "kv40")
-    open_app(page, base_url, "#/log")
-    figure = page.locator("[data-log-list] figure.trend-figure")
-    figure.locator("svg").wait_for()
-    saved = page.evaluate("""async () => (await import(new URL("js/log.js", document.baseURI).href)).allEntries()""")
-    expected = bridge.trends(saved, "metric")
+    _save_one(page, tool, "kv40", machine)
+    open_app(page, base_url, f"#/machine/{machine}")
+    figure = page.locator('[data-m="trends"] figure.trend-figure')
+    figure.locator("svg").first.wait_for()
+    saved = page.evaluate(READINGS_OF, machine)
+    stored = page.evaluate("""async (id) => (await import(new URL("js/kit.js", document.baseURI).href)).machine(id)""",
+                           machine)
+    expected = condition.trends(card.facts(stored["card"])[0], saved, "metric")
     assert [t["points"] for t in expected] == [2]
     assert figure.count() == 1
-    assert figure.locator("figcaption").inner_text() == expected[0]["title"]
-    assert "Press 7, north bay" in expected[0]["title"]
+    assert figure.locator("figcaption").inner_text().startswith(expected[0]["title"])
     svg = figure.locator("svg")
     assert "chart-trend" in svg.get_attribute("class")
     assert svg.locator(".trend-point").count() == 2
@@ -111,5 +124,5 @@ def test_new_build_is_offered_then_taken_whole_and_the_log_is_kept(page, dist, s
     assert caches == [f"sumpside-{new_build}"]
     open_app(page, base, "#/log")
     page.locator("[data-log-list] article").first.wait_for()
-    assert "Press 7, north bay" in page.inner_text("[data-log-list]")
+    assert "Press 7, north bay" in page.inner_text("[data-log-list]")  # the reading is kept
     assert not watch.errors

@@ -10,6 +10,7 @@ import pytest
 from calc import bridge
 from calc.kernel import registry
 from calc.machines import api, condition, records, report
+from calc.machines import card as cards
 from calc.machines.demo import plant
 
 TODAY = "2026-12-02"
@@ -45,10 +46,15 @@ def test_the_visit_report_holds_the_days_readings(demo):
     assert titles == ["Water in oil", registry.get("checklist-water").title,
                       registry.get("checklist-aeration").title]
     water = visit["readings"][0]
-    assert any(i["from_card"] for i in water["inputs"])
-    # Inputs and outputs in the reader's units.
-    assert any(i["text"].endswith("°F") for i in water["inputs"])
-    assert any(o["text"].endswith("US fl oz") for o in water["outputs"])
+    # The card's facts are counted, not repeated: they head the report.
+    assert water["from_card"] >= 3
+    entered = {i["label"]: i["text"] for i in water["inputs"]}
+    assert entered["Lab water content"] == "650.0 ppm"
+    assert entered["Oil temperature at the reading"] == "95.0 °F"  # 35 degC, in the reader's units
+    # What it found: the headline and followed values, under their screen labels.
+    tool = registry.get("water-in-oil")
+    wanted = {o.label for o in tool.outputs if o.headline or o.tracks}
+    assert {o["label"] for o in water["outputs"]} <= wanted and water["outputs"]
     checklist = visit["readings"][1]
     assert checklist["seen"] and checklist["causes"]
     assert visit["level"] == "act" and visit["who"] == "R. Okafor" and visit["notes"]
@@ -139,14 +145,47 @@ def test_the_machines_list_from_digests_is_the_list_from_all_readings(demo):
     # Digests made one save at a time are the digests of all the readings at once.
     for machine in demo["machines"]:
         mine = [r for r in demo["readings"] if r["machine"] == machine["id"]]
+        facts, card = cards.facts(machine["card"])[0], machine["card"]
         known = None
         for record in mine:
-            known = condition.digest_add(known, record)
-        assert known == condition.digest(mine)
+            known = condition.digest_add(known, record, facts, card)
+        assert known == condition.digest(mine, facts, card)
         digests[machine["id"]] = known
     small = _call(op="machines", machines=demo["machines"], digests=digests, units="metric",
                   today=TODAY)
     assert small == full
+    # A card changed since its digest was made (on another phone, say): worked out again.
+    edited = [{**m, "card": {**m["card"], "an_new": 0.1}} for m in demo["machines"]]
+    assert all(condition.fresh_summary(digests[m["id"]], m["card"]) is None for m in edited)
+    again = _call(op="machines", machines=edited, digests=digests, units="metric", today=TODAY)
+    fresh = _call(op="machines", machines=edited, readings=demo["readings"], units="metric",
+                  today=TODAY)
+    assert again == fresh
     crane = next(m for m in full["machines"] if m["name"].startswith("Crane"))
     assert crane["level"] == "act" and crane["overdue"] == 1 and crane["due"]["key"] == "filter"
     assert [m["name"] for m in full["machines"]] == sorted(m["name"] for m in full["machines"])
+
+
+def test_a_digest_sent_without_its_readings_is_asked_for_when_stale(demo):
+    machine = demo["machines"][0]
+    mine = [r for r in demo["readings"] if r["machine"] == machine["id"]]
+    known = condition.digest(mine, cards.facts(machine["card"])[0], machine["card"])
+    slim = {k: v for k, v in known.items() if k != "readings"}
+    ok = _call(op="machines", machines=[machine], digests={machine["id"]: slim}, units="metric",
+               today=TODAY)
+    assert ok["stale"] == [] and ok["machines"][0]["level"] == known["level"] == "act"
+    edited = {**machine, "card": {**machine["card"], "notes": "edited on another phone"}}
+    stale = _call(op="machines", machines=[edited], digests={machine["id"]: slim},
+                  units="metric", today=TODAY)
+    assert stale["stale"] == [machine["id"]] and stale["machines"][0]["level"] is None
+
+
+def test_a_digest_still_holds_after_a_trip_through_json(demo):
+    # The page keeps records as JavaScript numbers: 2.0 comes back as 2, and the digest's
+    # verdicts must still be taken as holding for that card.
+    machine = demo["machines"][0]
+    mine = [r for r in demo["readings"] if r["machine"] == machine["id"]]
+    known = condition.digest(mine, cards.facts(machine["card"])[0], machine["card"])
+    tripped = json.loads(json.dumps(machine["card"]).replace(".0,", ",").replace(".0}", "}"))
+    assert tripped["elbows_90"] == 2 and isinstance(tripped["elbows_90"], int)
+    assert condition.fresh_summary(known, tripped) is not None

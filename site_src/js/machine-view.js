@@ -1,0 +1,97 @@
+// A machine's page, everything from calc's "machine-page" answer: what is due, the latest value
+// and verdict of each followed quantity, the tools that take a reading filled from the card,
+// the trends against their limits (SVG drawn by calc), the readings and the card.
+import { LEVEL_WORD, el } from "./answers.js";
+import { allMachines, ask, deleteMachine, machine, readingsOf, today } from "./kit.js";
+import { chooseMachine, currentMachine } from "./machine-pick.js";
+import { renderReadings } from "./log-view.js";
+import { go } from "./routing.js";
+import { currentUnits } from "./units.js";
+
+const view = document.querySelector('[data-view="machine"]');
+const part = (name) => view.querySelector(`[data-m="${name}"]`);
+const PAGE = 20;
+let drawing = 0;
+let shownCount = PAGE;
+
+function latestRow(row) {
+  const level = row.level ? el("span", { className: "badge level-badge level-" + row.level, textContent: LEVEL_WORD[row.level] }) : "";
+  return el("tr", { className: row.level ? "level-" + row.level : "" },
+    el("th", { scope: "row", textContent: row.label }),
+    el("td", {}, el("strong", { textContent: row.text }), el("br"),
+      el("span", { className: "muted", textContent: `${new Date(row.time).toLocaleDateString()}, ${row.tool_title}` })),
+    el("td", {}, level, " ", row.message));
+}
+
+function trendFigure(trend) {
+  const figure = el("figure", { className: "trend-figure" });
+  const chart = el("div", { className: "trend-chart" });
+  chart.innerHTML = trend.svg; // drawn by calc: presentation attributes only, no script
+  figure.append(chart, el("figcaption", { textContent: `${trend.title} (${trend.points} readings)` }));
+  return figure;
+}
+
+export async function renderMachine(id) {
+  const turn = ++drawing;
+  const record = await machine(id);
+  if (!record) {
+    part("name").textContent = "No such machine on this device";
+    for (const name of ["site", "level", "due", "latest", "tools", "trends", "readings", "card"]) part(name).replaceChildren();
+    return;
+  }
+  const readings = await readingsOf(id);
+  // The page needs of each reading only what it measured and when (calc keeps "tracked").
+  const slim = readings.map(({ id: rid, machine: mid, tool, time, tracked }) => ({ id: rid, machine: mid, tool, time, tracked }));
+  const page = await ask("machine-page", { machine: record, readings: slim, units: currentUnits(), today: today() });
+  if (turn !== drawing || !page.ok) return;
+  part("name").textContent = page.name;
+  document.title = page.name + " · Sumpside";
+  part("site").textContent = page.site;
+  part("level").textContent = page.level ? `Worst latest verdict: ${LEVEL_WORD[page.level]}` : "";
+  part("level").className = "machine-level" + (page.level ? " level-" + page.level : "");
+  part("visit").href = `#/visit/${encodeURIComponent(id)}/${today()}`;
+  part("edit").href = "#/card/" + encodeURIComponent(id);
+  part("due").replaceChildren(...(page.due.length ? page.due.map((d) => el("li", { className: "due-" + d.state, textContent: d.says }))
+    : [el("li", { className: "muted", textContent: "No service intervals on the card: add them to see what is due." })]));
+  part("no-readings").hidden = page.count > 0;
+  part("latest-table").hidden = !page.latest.length;
+  part("latest").replaceChildren(...page.latest.map(latestRow));
+  part("tools").replaceChildren(...page.tools.map((t) => el("li", {}, el("a", {
+    href: "#/tool/" + t.id, textContent: t.title + (t.bound ? ` (${t.bound} from the card)` : "") }))));
+  for (const a of part("tools").querySelectorAll("a")) a.dataset.forMachine = id;
+  part("trends").replaceChildren(...(page.trends.length ? page.trends.map(trendFigure)
+    : [el("p", { className: "muted", textContent: "A trend is drawn once a quantity has two readings." })]));
+  part("card").replaceChildren(...page.summary.map((line) => el("div", {},
+    el("dt", { textContent: line.label }), el("dd", { textContent: line.text + (line.derived ? " (follows from the card)" : "") }))));
+  const newest = readings.sort((a, b) => Date.parse(b.time) - Date.parse(a.time));
+  const list = el("div");
+  const names = new Map((await allMachines()).map((m) => [m.id, m.card.name]));
+  await renderReadings(list, newest.slice(0, shownCount), names, currentUnits(), () => renderMachine(id));
+  if (turn !== drawing) return;
+  part("readings").replaceChildren(...list.children);
+  part("more").hidden = newest.length <= shownCount;
+}
+
+export function startMachineView() {
+  part("more").addEventListener("click", () => { shownCount += PAGE; renderMachine(view.dataset.param); });
+  part("delete").addEventListener("click", async () => {
+    const id = view.dataset.param;
+    const record = await machine(id);
+    if (!record || !confirm(`Delete ${record.card.name} and all its readings from this device?`)) return;
+    await deleteMachine(id);
+    await chooseMachine(null);
+    go("#/machines");
+  });
+  // A tool opened from a machine's page works for that machine.
+  document.addEventListener("click", (event) => {
+    const link = event.target.closest && event.target.closest("a[data-for-machine]");
+    if (link) chooseMachine(link.dataset.forMachine);
+  }, true);
+}
+
+export async function showMachine(id) {
+  shownCount = PAGE;
+  // The machine whose page is open is the one being worked on.
+  if (id && currentMachine()?.id !== id && (await machine(id))) await chooseMachine(id);
+  return renderMachine(id);
+}
