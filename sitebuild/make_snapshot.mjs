@@ -7,10 +7,12 @@
 // defaults in both unit systems) so every lazy path is warm, warms the unit switch and the
 // log's trend charts, stamps the wheel's sha256 into the interpreter (the worker reads it
 // back after a restore to tell a snapshot of another build), and writes
-// pyodide.makeMemorySnapshot() to <out.bin>. Prints one JSON line with what it did, the
-// self-check among it: the worker runs the self-check again after a restore and compares.
+// pyodide.makeMemorySnapshot() to <out.bin>, the same bytes at every run (makeRepeatable).
+// Prints one JSON line with what it did, the self-check among it: the worker runs the
+// self-check again after a restore and compares.
 // _makeSnapshot and makeMemorySnapshot are underscore/private options of Pyodide 314.0.x.
 import { readFileSync, writeFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 
@@ -21,8 +23,8 @@ if (!pyodideDir || !outFile || !/^[0-9a-f]{64}$/.test(wheelSha || "")) {
 }
 const indexDir = path.resolve(pyodideDir) + path.sep;
 const { loadPyodide } = await import(pathToFileURL(path.join(indexDir, "pyodide.mjs")).href);
-
-const started = performance.now();
+const started = process.hrtime.bigint();
+makeRepeatable();
 const pyodide = await loadPyodide({
   indexURL: indexDir,
   lockFileURL: path.join(indexDir, "pyodide-lock.json"),
@@ -80,4 +82,30 @@ pyodide.runPython("del _report; import gc; gc.collect()");
 const snapshot = pyodide.makeMemorySnapshot();
 writeFileSync(outFile, snapshot);
 console.log(JSON.stringify({ bytes: snapshot.length, tools: parsed.tools, self_check: parsed.self_check,
-  modules: parsed.modules.length, ms: Math.round(performance.now() - started) }));
+  modules: parsed.modules.length, ms: Number((process.hrtime.bigint() - started) / 1000000n) }));
+
+// Two builds of the same commit must give the same snapshot, byte for byte, or every phone
+// downloads it again. What the interpreter's memory takes from this machine is its entropy
+// (the str hash secret, the random module's seed, the allocator's canaries: all from
+// node:crypto's randomFillSync in Pyodide's Node.js glue) and its clocks (file times, the
+// import system's directory caches, time.monotonic's base). So the entropy comes from a
+// seeded generator and both clocks count their own calls from a fixed start: the same run
+// then reads the same values. Only this Node.js process is affected; the worker gives the
+// restored interpreter fresh entropy and the browser's clocks.
+function makeRepeatable() {
+  const nodeCrypto = createRequire(import.meta.url)("node:crypto");
+  let block = 0;
+  nodeCrypto.randomFillSync = (view) => {
+    const bytes = new Uint8Array(view.buffer, view.byteOffset, view.byteLength);
+    for (let at = 0; at < bytes.length; at += 32) {
+      const digest = nodeCrypto.createHash("sha256").update(`sumpside snapshot ${block++}`).digest();
+      bytes.set(digest.subarray(0, Math.min(32, bytes.length - at)), at);
+    }
+    return view;
+  };
+  const EPOCH_MS = Date.UTC(2020, 0, 1);
+  let wallCalls = 0;
+  let monotonicCalls = 0;
+  Date.now = () => EPOCH_MS + wallCalls++;
+  performance.now = () => 0.01 * monotonicCalls++;
+}
