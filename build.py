@@ -28,7 +28,7 @@ from pathlib import Path
 
 import jinja2
 
-from sitebuild import content, icons, serve, snapshot
+from sitebuild import compress, content, icons, serve, snapshot
 
 ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
@@ -198,7 +198,7 @@ def build(dist: Path = DIST) -> str:
          "wheel": wheel.name}, indent=2), encoding="utf-8")
     write_service_worker(dist, precache_list(dist), build_id)
     # Wire encodings only, after the precache list: the cache keeps the decoded bytes.
-    snapshot.write_gzip_twins(dist)
+    compress.write_twins(dist)
     return build_id
 
 

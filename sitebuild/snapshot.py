@@ -7,8 +7,8 @@ the pinned Pyodide and writes, beside it in dist/pyodide/:
 
 - ``snapshot.bin``: the snapshot without its long runs of zero bytes (see ``sparse``: about
   half the size, so the cache read at every boot takes half the time; the worker puts the
-  zeros back in a few ms); ``write_gzip_twins`` adds ``snapshot.bin.gz`` for the wire, and
-  the cache keeps the decoded bytes, so no boot inflates anything;
+  zeros back in a few ms); sitebuild.compress adds its ``.br`` and ``.gz`` twins for the
+  wire, and the cache keeps the decoded bytes, so no boot inflates anything;
 - ``snapshot.json``: what ties it to this build: the calc wheel's sha256 (the same hash
   the lock file gives the wheel; the snapshot also carries it inside the interpreter as
   ``calc._snapshot_wheel_sha256``), the Pyodide version, the byte count and sha256 of
@@ -24,7 +24,6 @@ not shipped, the build says so, and the worker boots the normal way.
 
 from __future__ import annotations
 
-import gzip
 import hashlib
 import json
 import re
@@ -43,8 +42,6 @@ SNAPSHOT = "snapshot.bin"
 META = "snapshot.json"
 # snapshot.json's layout; the worker refuses any other (site_src/js/snapshot-check.js).
 FORMAT = 3
-# Files the browser fetches that compress well; their .gz twins are served by sitebuild.serve.
-GZIP_SUFFIXES = (".bin", ".wasm", ".mjs", ".js", ".css", ".html", ".json", ".webmanifest", ".svg")
 
 
 SPARSE_MAGIC = b"SPZ1"
@@ -142,21 +139,3 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
     }
     (pyodide_dir / META).write_text(json.dumps(meta, indent=2, ensure_ascii=False), encoding="utf-8")
     return meta
-
-
-def write_gzip_twins(dist: Path, min_bytes: int = 1024) -> list[str]:
-    """A ``.gz`` twin beside every compressible file worth it; returns the twins written.
-
-    Written after the service worker's precache list, so the twins are wire encodings only
-    (the cache stores the decoded bytes: the snapshot is inflated once, not at every boot).
-    """
-    written = []
-    for path in sorted(dist.rglob("*")):
-        if not path.is_file() or path.suffix not in GZIP_SUFFIXES or path.stat().st_size < min_bytes:
-            continue
-        raw = path.read_bytes()
-        packed = gzip.compress(raw, compresslevel=9, mtime=0)
-        if len(packed) < 0.9 * len(raw):
-            path.with_name(path.name + ".gz").write_bytes(packed)
-            written.append(path.relative_to(dist).as_posix())
-    return written
