@@ -158,18 +158,25 @@ def precache_list(dist: Path) -> list[str]:
     return [f for f in files if f != "sw.js"]
 
 
-def build_hash(dist: Path, files: list[str]) -> str:
-    digest = hashlib.sha256()
-    for name in files:
-        digest.update(name.encode() + b"\0" + (dist / name).read_bytes())
-    return digest.hexdigest()[:12]
+def precache_manifest(dist: Path) -> list[dict]:
+    """Each precached file with the sha256 of its bytes as a subresource-integrity string:
+    the service worker fetches a file only when this changed, and checks what it gets."""
+    return [{"url": name, "integrity": "sha256-" + base64.b64encode(
+                hashlib.sha256((dist / name).read_bytes()).digest()).decode()}
+            for name in precache_list(dist)]
 
 
-def write_service_worker(dist: Path, files: list[str], build_id: str) -> None:
+def build_hash(manifest: list[dict]) -> str:
+    """The build id: a digest of every file's name and hash, so the same sources give the
+    same id and any change to any file gives another."""
+    lines = "".join(f"{entry['url']} {entry['integrity']}\n" for entry in manifest)
+    return hashlib.sha256(lines.encode()).hexdigest()[:12]
+
+
+def write_service_worker(dist: Path, manifest: list[dict], build_id: str) -> None:
     template = (SITE / "sw.js").read_text(encoding="utf-8")
-    precache = ["./"] + [f for f in files if f != "index.html"] + ["index.html"]
     text = template.replace('"__BUILD_ID__"', json.dumps(build_id)).replace(
-        "[/* __PRECACHE__ */]", json.dumps(precache, indent=2))
+        "[/* __PRECACHE__ */]", json.dumps(manifest, indent=2))
     (dist / "sw.js").write_text(text, encoding="utf-8")
 
 
@@ -189,14 +196,14 @@ def build(dist: Path = DIST) -> str:
     write_manifest(dist)
     # The page shows its build id: hash the page with a token in the id's place, then fill it in.
     render_pages(dist, BUILD_ID_TOKEN, pyodide_version)
-    build_id = build_hash(dist, precache_list(dist))
+    build_id = build_hash(precache_manifest(dist))
     page = dist / "index.html"
     page.write_text(page.read_text(encoding="utf-8").replace(BUILD_ID_TOKEN, build_id),
                     encoding="utf-8")
     (dist / "build.json").write_text(json.dumps(
         {"build": build_id, "pyodide": pyodide_version, "version": project_meta()["version"],
          "wheel": wheel.name}, indent=2), encoding="utf-8")
-    write_service_worker(dist, precache_list(dist), build_id)
+    write_service_worker(dist, precache_manifest(dist), build_id)
     # Wire encodings only, after the precache list: the cache keeps the decoded bytes.
     compress.write_twins(dist)
     return build_id

@@ -29,6 +29,9 @@ const pyodide = await loadPyodide({
   indexURL: indexDir,
   lockFileURL: path.join(indexDir, "pyodide-lock.json"),
   _makeSnapshot: true,
+  // Else Node.js gives this script's path as sys.executable, and a copy of the project
+  // elsewhere makes another snapshot; this is what a browser's boot has.
+  _sysExecutable: "./this.program",
   stdout: () => {},
   stderr: (line) => console.error(line),
 });

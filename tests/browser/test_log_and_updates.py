@@ -1,27 +1,18 @@
-"""The log survives reloads and a new build; a new build is offered, then taken whole."""
+"""The log survives reloads and draws trends (a new build: test_updates.py)."""
 
 from __future__ import annotations
 
 import json
-import re
 from xml.etree import ElementTree
 
 from calc import bridge
 
-from .conftest import BOOT_TIMEOUT_MS, copy_dist, open_app, wait_answer
-
-
-def _save_one(page, tool="viscosity-at-temperature", key="kv"):
-    wait_answer(page, tool, key)
-    page.fill("#job-machine", "Press 7, north bay")
-    page.click(f'form[data-tool="{tool}"] [data-action="save"]')
-    page.wait_for_function("""t => document.querySelector(
-        `form[data-tool="${t}"] [data-state]`).textContent.includes('Saved')""", arg=tool)
+from .conftest import open_app, save_reading, wait_answer
 
 
 def test_log_survives_reload_and_exports(page, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
-    _save_one(page)
+    save_reading(page)
     page.reload()
     open_app(page, base_url, "#/log")
     entry = page.locator("[data-log-list] article")
@@ -60,12 +51,12 @@ def test_two_saved_readings_draw_a_trend(page, base_url, watch):
     # viscosity-grade's kv40 is a followed quantity: two saved readings make calc draw a trend.
     tool = "viscosity-grade"
     open_app(page, base_url, f"#/tool/{tool}")
-    _save_one(page, tool, "kv40")
+    save_reading(page, tool, "kv40")
     first = wait_answer(page, tool, "kv40")
     page.locator(f'form[data-tool="{tool}"] [name="kv"]').fill("52")
     page.wait_for_function("""([t, old]) => document.querySelector(
         `form[data-tool="${t}"] [data-out="kv40"]`).textContent !== old""", arg=[tool, first])
-    _save_one(page, tool, "kv40")
+    save_reading(page, tool, "kv40")
     open_app(page, base_url, "#/log")
     figure = page.locator("[data-log-list] figure.trend-figure")
     figure.locator("svg").wait_for()
@@ -80,36 +71,4 @@ def test_two_saved_readings_draw_a_trend(page, base_url, watch):
     assert svg.locator(".trend-point").count() == 2
     # Every word and number of the chart as calc drew it (ticks, dates, title, description).
     assert svg.evaluate("el => el.textContent") == _svg_text(expected[0]["svg"])
-    assert not watch.errors
-
-
-def test_new_build_is_offered_then_taken_whole_and_the_log_is_kept(page, dist, serve_dir, tmp_path, watch):
-    site = copy_dist(dist, tmp_path)
-    base = serve_dir(site)
-    open_app(page, base, "#/tool/viscosity-at-temperature")
-    page.wait_for_function("() => navigator.serviceWorker.controller !== null", timeout=BOOT_TIMEOUT_MS)
-    old_build = page.get_attribute("html", "data-build")
-    _save_one(page)
-
-    # A new build arrives: a changed page and a service worker with a new id and cache.
-    new_build = "feedfacecafe"
-    page_file = site / "index.html"
-    page_file.write_text(page_file.read_text(encoding="utf-8").replace(old_build, new_build), encoding="utf-8")
-    sw = site / "sw.js"
-    sw.write_text(re.sub(r'const BUILD = "[^"]+"', f'const BUILD = "{new_build}"', sw.read_text(encoding="utf-8")),
-                  encoding="utf-8")
-
-    page.evaluate("async () => (await navigator.serviceWorker.getRegistration()).update()")
-    page.locator("#update-banner").wait_for(state="visible", timeout=BOOT_TIMEOUT_MS)
-    # Until the user says so, the old build keeps serving.
-    assert page.get_attribute("html", "data-build") == old_build
-    with page.expect_navigation(timeout=BOOT_TIMEOUT_MS):
-        page.click("#update-apply")
-    page.wait_for_selector("html[data-ready]", timeout=BOOT_TIMEOUT_MS)
-    assert page.get_attribute("html", "data-build") == new_build
-    caches = page.evaluate("() => caches.keys()")
-    assert caches == [f"sumpside-{new_build}"]
-    open_app(page, base, "#/log")
-    page.locator("[data-log-list] article").first.wait_for()
-    assert "Press 7, north bay" in page.inner_text("[data-log-list]")
     assert not watch.errors

@@ -14,6 +14,8 @@ from pathlib import Path
 
 import pytest
 
+from sitebuild import variant
+
 ROOT = Path(__file__).resolve().parents[2]
 
 
@@ -26,11 +28,14 @@ def _digests(dist: Path) -> dict[str, str]:
 def test_two_builds_are_byte_identical(tmp_path):
     if not (ROOT / "node_modules" / "pyodide").is_dir():
         pytest.fail("node_modules/pyodide is missing: `make test` runs npm ci first")
-    # Each in its own folder, at the same time: neither the path nor the moment may show.
-    folders = [tmp_path / "first" / "dist", tmp_path / "second" / "elsewhere"]
-    builds = [subprocess.Popen([sys.executable, "build.py", "--dist", str(folder)], cwd=ROOT,
+    # At the same time, one from a copy of the sources elsewhere, each into its own folder:
+    # neither the moment nor a path may show in what is built.
+    copy = variant.copy_sources(tmp_path / "copy" / "of" / "the" / "sources")
+    runs = [(ROOT, tmp_path / "first" / "dist"), (copy, tmp_path / "second" / "elsewhere")]
+    builds = [subprocess.Popen([sys.executable, "build.py", "--dist", str(folder)], cwd=sources,
                                stdout=subprocess.PIPE, stderr=subprocess.STDOUT, text=True)
-              for folder in folders]
+              for sources, folder in runs]
+    folders = [folder for _, folder in runs]
     for build in builds:
         output = build.communicate(timeout=900)[0]
         assert build.returncode == 0, output[-3000:]
