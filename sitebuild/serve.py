@@ -107,6 +107,8 @@ class Handler(http.server.SimpleHTTPRequestHandler):
 
     def send_head(self):
         path = Path(self.translate_path(self.path))
+        if path.is_dir() and self.path.split("?", 1)[0].endswith("/"):
+            path = path / "index.html"  # the folder's page, twins and all
         chosen = self._twin(path)
         if chosen is None:
             return super().send_head()

@@ -3,6 +3,7 @@ benchmark hand a phone that holds dist/, and what the registry test builds with 
 
     copy_sources(where)              the sources build.py reads, in a new folder
     build_with_one_help_change(where)  a build that differs from this one in one help page
+    UPDATE_CHECK                     page script: ask for an update, say what became of it
 """
 
 from __future__ import annotations
@@ -21,6 +22,26 @@ FILES = ("build.py", "pyproject.toml")
 SHARED = ("node_modules", ".cache")
 # One sentence more in one help page: the smallest change a writer makes.
 HELP_FIX = "\nRead the value at the temperature the oil has in the tank, not at the gauge.\n"
+
+# Resolves with what became of the service worker an update check finds: "installed" (it
+# holds the whole new build and waits) or "redundant" (its install failed); "none" if the
+# check found nothing new, "timeout" if the worker never settled.
+UPDATE_CHECK = """async () => {
+  const registration = await navigator.serviceWorker.getRegistration();
+  let incoming = null;
+  registration.addEventListener("updatefound", () => { incoming = registration.installing; }, { once: true });
+  await registration.update();
+  incoming = incoming || registration.installing || registration.waiting;
+  if (!incoming) return "none";
+  const settled = () => ["installed", "activated", "redundant"].includes(incoming.state);
+  if (settled()) return incoming.state;
+  return Promise.race([
+    new Promise((resolve) => incoming.addEventListener("statechange", () => {
+      if (settled()) resolve(incoming.state);
+    })),
+    new Promise((resolve) => setTimeout(() => resolve("timeout"), 60000)),
+  ]);
+}"""
 
 
 class VariantError(RuntimeError):

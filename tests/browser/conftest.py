@@ -117,16 +117,6 @@ def wait_answer(page, tool: str, key: str) -> str:
     return page.inner_text(selector)
 
 
-def save_reading(page, tool: str = "viscosity-at-temperature", key: str = "kv",
-                 machine: str = "Press 7, north bay") -> None:
-    """Save the tool's answer to the log, for `machine`, once it has answered."""
-    wait_answer(page, tool, key)
-    page.fill("#job-machine", machine)
-    page.click(f'form[data-tool="{tool}"] [data-action="save"]')
-    page.wait_for_function("""t => document.querySelector(
-        `form[data-tool="${t}"] [data-state]`).textContent.includes('Saved')""", arg=tool)
-
-
 def copy_dist(dist: Path, where: Path) -> Path:
     target = where / "dist"
     shutil.copytree(dist, target)

@@ -1,4 +1,4 @@
-"""The log survives reloads and draws trends (a new build: test_updates.py)."""
+"""The log survives reloads and draws trends; a new build keeps it (test_updates.py)."""
 
 from __future__ import annotations
 
@@ -7,12 +7,20 @@ from xml.etree import ElementTree
 
 from calc import bridge
 
-from .conftest import open_app, save_reading, wait_answer
+from .conftest import open_app, wait_answer
+
+
+def _save_one(page, tool="viscosity-at-temperature", key="kv"):
+    wait_answer(page, tool, key)
+    page.fill("#job-machine", "Press 7, north bay")
+    page.click(f'form[data-tool="{tool}"] [data-action="save"]')
+    page.wait_for_function("""t => document.querySelector(
+        `form[data-tool="${t}"] [data-state]`).textContent.includes('Saved')""", arg=tool)
 
 
 def test_log_survives_reload_and_exports(page, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
-    save_reading(page)
+    _save_one(page)
     page.reload()
     open_app(page, base_url, "#/log")
     entry = page.locator("[data-log-list] article")
@@ -51,12 +59,12 @@ def test_two_saved_readings_draw_a_trend(page, base_url, watch):
     # viscosity-grade's kv40 is a followed quantity: two saved readings make calc draw a trend.
     tool = "viscosity-grade"
     open_app(page, base_url, f"#/tool/{tool}")
-    save_reading(page, tool, "kv40")
+    _save_one(page, tool, "kv40")
     first = wait_answer(page, tool, "kv40")
     page.locator(f'form[data-tool="{tool}"] [name="kv"]').fill("52")
     page.wait_for_function("""([t, old]) => document.querySelector(
         `form[data-tool="${t}"] [data-out="kv40"]`).textContent !== old""", arg=[tool, first])
-    save_reading(page, tool, "kv40")
+    _save_one(page, tool, "kv40")
     open_app(page, base_url, "#/log")
     figure = page.locator("[data-log-list] figure.trend-figure")
     figure.locator("svg").wait_for()

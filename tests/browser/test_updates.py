@@ -16,29 +16,12 @@ import pytest
 
 from sitebuild import serve, variant
 
-from .conftest import BOOT_TIMEOUT_MS, copy_dist, open_app, save_reading
+from .conftest import BOOT_TIMEOUT_MS, copy_dist, open_app
+from .test_log_and_updates import _save_one
 
-READINGS = (("viscosity-at-temperature", "kv", "Press 7, north bay"),
-            ("viscosity-grade", "kv40", "Crane 2, quay"))
-# Resolves with what became of the service worker an update check finds: "installed" (it
-# holds the whole new build and waits) or "redundant" (its install failed); "none" if the
-# check found nothing new, "timeout" if the worker never settled.
-UPDATE = """async () => {
-  const registration = await navigator.serviceWorker.getRegistration();
-  let incoming = null;
-  registration.addEventListener("updatefound", () => { incoming = registration.installing; }, { once: true });
-  await registration.update();
-  incoming = incoming || registration.installing || registration.waiting;
-  if (!incoming) return "none";
-  const settled = () => ["installed", "activated", "redundant"].includes(incoming.state);
-  if (settled()) return incoming.state;
-  return Promise.race([
-    new Promise((resolve) => incoming.addEventListener("statechange", () => {
-      if (settled()) resolve(incoming.state);
-    })),
-    new Promise((resolve) => setTimeout(() => resolve("timeout"), 60000)),
-  ]);
-}"""
+# Saved the way the log's own tests save one (test_log_and_updates._save_one).
+READINGS = (("viscosity-at-temperature", "kv"), ("viscosity-grade", "kv40"))
+
 
 
 @pytest.fixture(scope="module")
@@ -78,9 +61,9 @@ def _served_build_a(page, dist, host, tmp_path) -> tuple[Path, str, list]:
     """Build A served and cached whole, readings saved: (its folder, base URL, what the host sent)."""
     site = copy_dist(dist, tmp_path)
     base, sent = host(site)
-    for tool, key, machine in READINGS:
+    for tool, key in READINGS:
         open_app(page, base, f"#/tool/{tool}")
-        save_reading(page, tool, key, machine)
+        _save_one(page, tool, key)
     page.wait_for_function("() => navigator.serviceWorker.controller !== null", timeout=BOOT_TIMEOUT_MS)
     return site, base, sent
 
@@ -91,9 +74,10 @@ def _paths(sent) -> list[str]:
 
 def _log_lists_every_reading(page, base: str) -> None:
     open_app(page, base, "#/log")
-    page.locator("[data-log-list] article").first.wait_for()
-    listed = page.inner_text("[data-log-list]")
-    assert all(machine in listed for _, _, machine in READINGS), listed
+    entries = page.locator("[data-log-list] article")
+    entries.first.wait_for()
+    assert entries.count() == len(READINGS)
+    assert "Press 7, north bay" in page.inner_text("[data-log-list]")
 
 
 def test_a_help_fix_costs_only_the_changed_files(page, dist, build_b, host, tmp_path, watch):
@@ -106,7 +90,7 @@ def test_a_help_fix_costs_only_the_changed_files(page, dist, build_b, host, tmp_
 
     del sent[:]
     _swap(site, build_b)
-    assert page.evaluate(UPDATE) == "installed"
+    assert page.evaluate(variant.UPDATE_CHECK) == "installed"
     page.locator("#update-banner").wait_for(state="visible", timeout=BOOT_TIMEOUT_MS)
     # The new build's list and its changed files, each once, in full: nothing else.
     assert _paths(sent) == sorted(["sw.js"] + changed), sent
@@ -141,7 +125,7 @@ def test_a_file_that_does_not_match_its_hash_is_refused(page, context, dist, bui
         twin.unlink()  # the host has no compressed twins of the bad file: it serves it as it is
     assert hashlib.sha256(bad.read_bytes()).digest() != hashlib.sha256(data).digest()
 
-    assert page.evaluate(UPDATE) == "redundant"
+    assert page.evaluate(variant.UPDATE_CHECK) == "redundant"
     assert "index.html" in _paths(sent)  # fetched, checked and refused
     assert page.locator("#update-banner").is_hidden()
     # Build A stays in use, whole: its cache is untouched and serves the reload, offline too.

@@ -50,6 +50,15 @@ def test_picks_the_twin_the_client_accepts(site, accept, encoding):
         ("/page.html", 200, len(body), encoding or "")]
 
 
+def test_a_folder_is_served_its_page_twin(site):
+    folder, base, _ = site
+    (folder / "page.html").rename(folder / "index.html")
+    for suffix in (".br", ".gz"):
+        (folder / f"page.html{suffix}").rename(folder / f"index.html{suffix}")
+    encoding, _, body = _get(base, "gzip, br")
+    assert encoding == "br" and brotli.decompress(body) == BODY
+
+
 def test_a_twin_older_than_its_file_is_not_served(site):
     folder, base, _ = site
     stale = folder / "page.html.br"
