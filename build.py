@@ -6,9 +6,11 @@
 Steps: render the page with jinja2 (each tool's form from the registry, help and
 checklists from markdown), pack calc as a pure-Python wheel, add it to a copy of
 Pyodide's lock file with pyodide-build's lock-file command, copy the pinned
-Pyodide core, write icons, the web manifest and the service worker with its
-precache list and build hash. Every URL is relative, so dist/ works under any
-path of any static host.
+Pyodide core with only the stdlib files the app imports, make the memory
+snapshot, write icons, the web manifest and the service worker with its
+precache list (each file's hash) and the build id, then the brotli and gzip
+twins. Every URL is relative, so dist/ works under any path of any static host.
+The same sources give the same bytes (tests/build/test_reproducible.py).
 """
 
 from __future__ import annotations
@@ -28,7 +30,7 @@ from pathlib import Path
 
 import jinja2
 
-from sitebuild import compress, content, icons, serve, snapshot
+from sitebuild import compress, content, icons, serve, snapshot, stdlib
 
 ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
@@ -189,6 +191,8 @@ def build(dist: Path = DIST) -> str:
     pyodide_version = copy_pyodide(pyodide_dir)
     wheel = build_wheel(pyodide_dir)
     write_lock_file(wheel, pyodide_dir)
+    # Only the stdlib files the app imports (sitebuild/stdlib.py), before the snapshot is made.
+    stdlib.write_stdlib(pyodide_dir, PYODIDE_NPM / stdlib.NAME)
     copy_static(dist)
     # The worker boots from this memory snapshot (sitebuild/snapshot.py); it is precached too.
     snapshot.write_snapshot(pyodide_dir)

@@ -12,14 +12,18 @@ the pinned Pyodide and writes, beside it in dist/pyodide/:
 - ``snapshot.json``: what ties it to this build: the calc wheel's sha256 (the same hash
   the lock file gives the wheel; the snapshot also carries it inside the interpreter as
   ``calc._snapshot_wheel_sha256``), the Pyodide version, the byte count and sha256 of
-  ``snapshot.bin`` as stored and the size of the full snapshot, and the freshly booted
-  interpreter's ``calc.bridge.self_check()`` (every tool on its defaults in both unit
-  systems, and the digest of all those answers), which the worker runs again after a
-  restore and compares.
+  ``snapshot.bin`` as stored and the size of the full snapshot, the heap against its
+  budget, and the freshly booted interpreter's ``calc.bridge.self_check()`` (every tool
+  on its defaults in both unit systems, and the digest of all those answers) beside its
+  ``self_check(sample=True)`` (the first tool of each topic), which the worker runs again
+  after a restore and compares.
 
-Pyodide 314.0.x restores into its default 30 MiB heap without growing it, so a snapshot
-whose heap outgrew that cannot be restored ("offset is out of bounds"): such a snapshot is
-not shipped, the build says so, and the worker boots the normal way.
+Pyodide 314.0.x restores into its default 30 MiB of memory without growing it, so a snapshot
+whose memory outgrew that cannot be restored ("offset is out of bounds"). That memory is the
+heap's budget: below the heap sit the interpreter's static data and its stack, so malloc
+may have what lies above (about 17 MB). The build reports the bytes in use against that
+budget, warns at WARN_SHARE of it, and fails when the snapshot would not restore (the
+worker's fallback to the normal boot stays for a snapshot that breaks on a phone).
 """
 
 from __future__ import annotations
@@ -41,7 +45,9 @@ DEFAULT_HEAP_BYTES = 30 * 1024 * 1024
 SNAPSHOT = "snapshot.bin"
 META = "snapshot.json"
 # snapshot.json's layout; the worker refuses any other (site_src/js/snapshot-check.js).
-FORMAT = 3
+FORMAT = 4
+# The build warns when this share of the heap's budget is in use.
+WARN_SHARE = 0.8
 
 
 SPARSE_MAGIC = b"SPZ1"
@@ -93,13 +99,26 @@ def heap_bytes(snapshot: bytes) -> int:
     return len(snapshot) - offset
 
 
+def heap_budget(figures: dict) -> dict:
+    """The heap against its budget, from the snapshot maker's figures (heapFigures in
+    make_snapshot.mjs): the budget is the memory above the heap's start.
+
+    >>> heap_budget({"memory": 100, "heap_start": 20, "break": 60, "arena": 40, "in_use": 30})["share"]
+    0.375
+    """
+    budget = figures["memory"] - figures["heap_start"]
+    return {"budget": budget, "in_use": figures["in_use"], "claimed": figures["arena"],
+            "share": round(figures["in_use"] / budget, 4),
+            "claimed_share": round(figures["arena"] / budget, 4)}
+
+
 def _pyodide_version(pyodide_dir: Path) -> str:
     npm = HERE.parent / "node_modules" / "pyodide" / "package.json"
     return json.loads(npm.read_text())["version"] if npm.exists() else "unknown"
 
 
-def write_snapshot(pyodide_dir: Path) -> dict | None:
-    """Make dist/pyodide/snapshot.bin and snapshot.json; returns the metadata, None if not shipped."""
+def write_snapshot(pyodide_dir: Path) -> dict:
+    """Make dist/pyodide/snapshot.bin and snapshot.json; returns the metadata."""
     node = shutil.which("node")
     if not node:
         sys.exit("build: `node` is missing: the memory snapshot is made with Node.js "
@@ -110,7 +129,7 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
     version = _pyodide_version(pyodide_dir)
     with tempfile.TemporaryDirectory() as tmp:
         raw = Path(tmp) / "snapshot.raw"
-        run = subprocess.run([node, str(SCRIPT), str(pyodide_dir), str(raw), wheel_sha],
+        run = subprocess.run([node, str(SCRIPT), "snapshot", str(pyodide_dir), str(raw), wheel_sha],
                              capture_output=True, text=True)
         if run.returncode != 0:
             tail = "\n".join((run.stderr or run.stdout).strip().splitlines()[-15:])
@@ -118,10 +137,16 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
         made = json.loads(run.stdout.strip().splitlines()[-1])
         data = raw.read_bytes()
     if heap_bytes(data) > DEFAULT_HEAP_BYTES:
-        print(f"build: WARNING the snapshot's heap is {heap_bytes(data)} bytes, more than the "
-              f"{DEFAULT_HEAP_BYTES} a Pyodide {version} restore can hold: not shipped, the "
-              "worker will boot the normal way", file=sys.stderr)
-        return None
+        sys.exit(f"build: the snapshot's memory is {heap_bytes(data):,} bytes, more than the "
+                 f"{DEFAULT_HEAP_BYTES:,} a Pyodide {version} restore can hold: the heap outgrew its "
+                 f"budget ({made['heap']['in_use']:,} bytes in use). Import less before the snapshot, "
+                 "or make the worker grow the memory before it restores")
+    heap = heap_budget(made["heap"])
+    print(f"snapshot: heap {heap['in_use']:,} of {heap['budget']:,} bytes in use "
+          f"({heap['share']:.0%} of its budget)")
+    if heap["share"] >= WARN_SHARE:
+        print(f"build: WARNING the snapshot heap is {heap['share']:.0%} full (warned from "
+              f"{WARN_SHARE:.0%}); past its budget the build fails", file=sys.stderr)
     stored = sparse(data)
     (pyodide_dir / SNAPSHOT).write_bytes(stored)
     meta = {
@@ -135,7 +160,9 @@ def write_snapshot(pyodide_dir: Path) -> dict | None:
         "stored_bytes": len(stored),
         "sha256": hashlib.sha256(stored).hexdigest(),
         "tools": made["tools"],
+        "heap": heap,
         "self_check": made["self_check"],
+        "quick_check": made["quick_check"],
     }
     (pyodide_dir / META).write_text(json.dumps(meta, indent=2, ensure_ascii=False), encoding="utf-8")
     return meta

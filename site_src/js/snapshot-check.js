@@ -2,10 +2,12 @@
 // this build's, whole and restorable, and does the restored interpreter answer as the one that
 // made it? snapshot.json names the calc wheel's sha256, which must be the lock file's; the bytes
 // must match the size and sha256 it gives; the restored interpreter must carry the same wheel
-// hash, and calc.bridge.self_check() must give the digest the snapshot maker recorded. Anything
-// else (missing, corrupt, another build, too big for the 30 MiB heap Pyodide 314.0.x restores
-// into) rejects with the reason, and the worker boots the normal way.
-const FORMAT = 3; // sitebuild/snapshot.py's FORMAT
+// hash, and calc.bridge.self_check(sample=True) must give the digest the snapshot maker
+// recorded. Anything else (missing, corrupt, another build, too big for the 30 MiB heap
+// Pyodide 314.0.x restores into) rejects with the reason, and the worker boots the normal way.
+import { timed } from "./boot-phases.js";
+
+const FORMAT = 4; // sitebuild/snapshot.py's FORMAT
 const DEFAULT_HEAP_BYTES = 30 * 1024 * 1024;
 const SNAPSHOT_FILE = "snapshot.bin";
 const SPARSE_MAGIC = 0x315a5053; // "SPZ1" little-endian
@@ -46,10 +48,10 @@ export function requestSnapshot(pyodideURL, lockRequest) {
   }).catch((err) => {
     throw new Error("no snapshot in this build (" + err.message + ")");
   });
-  let storedRequest = fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
+  let storedRequest = timed("snapshot read", fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
     if (!response.ok) throw new Error(`${SNAPSHOT_FILE}: HTTP ${response.status}`);
     return new Uint8Array(await response.arrayBuffer());
-  });
+  }));
   // Awaited only later: marked handled so an early rejection is not reported as unhandled
   // (it still fails the restore, which falls back).
   metaRequest.catch(() => {});
@@ -65,10 +67,10 @@ export function requestSnapshot(pyodideURL, lockRequest) {
     return data;
   })();
   // The digest runs beside the restore; verify() checks it before the interpreter is used.
-  const digest = stored.then((data) => crypto.subtle.digest("SHA-256", data)).then(hex);
+  const digest = stored.then((data) => timed("snapshot digest", crypto.subtle.digest("SHA-256", data))).then(hex);
   let bytes = stored.then(async (data) => {
     const meta = await metaRequest;
-    const full = expand(data);
+    const full = timed("snapshot decode", () => expand(data));
     if (full.length !== meta.bytes) throw new Error(`snapshot expands to ${full.length} bytes, not ${meta.bytes}`);
     const heap = full.length - new DataView(full.buffer).getUint32(4, true);
     if (heap > DEFAULT_HEAP_BYTES) throw new Error(`snapshot heap of ${heap} bytes outgrows the restore's ${DEFAULT_HEAP_BYTES}`);
@@ -88,9 +90,13 @@ export function requestSnapshot(pyodideURL, lockRequest) {
       const stamped = pyodide.runPython("getattr(__import__('calc'), '_snapshot_wheel_sha256', '')");
       if (stamped !== lock.packages.sumpside.sha256) throw new Error("restored interpreter is from another build");
       const started = performance.now();
-      const check = JSON.parse(pyodide.pyimport("calc.bridge").self_check());
+      // The sample self-check (the first tool of each topic, both unit systems): the bytes
+      // are this build's already; this proves the restored interpreter answers as its maker did.
+      const selfCheck = pyodide.pyimport("calc.bridge").self_check;
+      const check = JSON.parse(timed("self-check", () => selfCheck.callKwargs({ sample: true })));
+      selfCheck.destroy();
       if (!check.ok) throw new Error("restored calculator failed its self-check (" + check.failed.join(", ") + ")");
-      if (check.digest !== meta.self_check.digest) throw new Error("restored calculator answered its self-check differently");
+      if (check.digest !== meta.quick_check.digest) throw new Error("restored calculator answered its self-check differently");
       return Math.round(performance.now() - started); // ms of the self-check, for the status line
     },
     // Lets the snapshot's bytes go (15 MB stored, 30 MB expanded) once the restore has used

@@ -48,10 +48,16 @@ def test_the_built_snapshot_belongs_to_this_build(dist):
     assert snapshot.heap_bytes(full) == meta["heap_bytes"]
     # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
     assert meta["heap_bytes"] <= 30 * 1024 * 1024
+    # The heap's budget, reported by the build: malloc's bytes in use within what it claimed.
+    heap = meta["heap"]
+    assert 0 < heap["in_use"] <= heap["claimed"] <= heap["budget"] < meta["heap_bytes"]
+    assert heap["share"] == round(heap["in_use"] / heap["budget"], 4)
     # The snapshot maker's self-check: every tool answered on its defaults, in both unit
     # systems, exactly as calc answers here (the worker compares a restored interpreter's).
     assert meta["self_check"] == json.loads(bridge.self_check())
     assert meta["self_check"]["ok"] and meta["self_check"]["tools"] == len(registry.tools())
+    # ... and the sample the worker runs again after a restore.
+    assert meta["quick_check"] == json.loads(bridge.self_check(sample=True))
     sw = (dist / "sw.js").read_text()
     assert '"pyodide/snapshot.bin"' in sw and '"pyodide/snapshot.json"' in sw
     assert ".gz" not in sw and ".br" not in sw  # twins are a wire encoding, never cached twice
@@ -86,7 +92,7 @@ def _break(folder, how: str) -> None:
         meta["wheel_sha256"] = "0" * 64
     elif how == "other-answers":
         # What a snapshot of other calc code would show: every tool passes, with other answers.
-        meta["self_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
+        meta["quick_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
     elif how == "too-big":
         # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
         full = snapshot.unsparse(snap.read_bytes()) + bytes(1024 * 1024)
