@@ -44,13 +44,15 @@ async function fetchJSON(name) {
 compileEarly(new URL("pyodide.asm.wasm", pyodideURL).href);
 
 // Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
-// starts at once too, with promises of the lock file and the snapshot: reading the snapshot
-// from the cache then overlaps with Pyodide loading its own script.
+// starts at once too, with promises of the lock file and the snapshot's buffer: reading and
+// decoding the snapshot then overlap with Pyodide loading its script and instantiating.
 const lockRequest = fetchJSON("pyodide-lock.json");
 let snapshot = requestSnapshot(pyodideURL, lockRequest);
 
 async function bootSnapshot() {
-  const pyodide = await timed("pyodide load", loadPyodide({ ...options(lockRequest), _loadSnapshot: snapshot.bytes() }));
+  const load = loadPyodide({ ...options(lockRequest), _loadSnapshot: snapshot.buffer(), fsInit: snapshot.filled });
+  // A refused fill leaves Pyodide a buffer it rejects ("invalid magic number"): say why instead.
+  const pyodide = await timed("pyodide load", load).catch(async (err) => { throw (await snapshot.failure()) || err; });
   const checkMs = await snapshot.verify(pyodide);
   // A restored interpreter starts with the snapshot's random state: give it a fresh one.
   pyodide.runPython("import random; random.seed()");
