@@ -52,7 +52,7 @@ let snapshot = requestSnapshot(pyodideURL, lockRequest);
 async function bootSnapshot() {
   const load = loadPyodide({ ...options(lockRequest), _loadSnapshot: snapshot.buffer(), fsInit: snapshot.filled });
   // A refused fill leaves Pyodide a buffer it rejects ("invalid magic number"): say why instead.
-  const pyodide = await timed("pyodide load", load).catch(async (err) => { throw (await snapshot.failure()) || err; });
+  const pyodide = await timed("pyodide load", load).catch((err) => { throw snapshot.failure() || err; });
   const checkMs = await snapshot.verify(pyodide);
   // A restored interpreter starts with the snapshot's random state: give it a fresh one.
   pyodide.runPython("import random; random.seed()");

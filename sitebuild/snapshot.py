@@ -38,6 +38,8 @@ import subprocess
 import sys
 from pathlib import Path
 
+import numpy as np
+
 HERE = Path(__file__).resolve().parent
 SCRIPT = HERE / "make_snapshot.mjs"
 # Pyodide 314.0.x's wasm memory at start-up (31457280 bytes); a restore never grows it.
@@ -45,52 +47,105 @@ DEFAULT_HEAP_BYTES = 30 * 1024 * 1024
 SNAPSHOT = "snapshot.bin"
 META = "snapshot.json"
 # snapshot.json's layout; the worker refuses any other (site_src/js/snapshot-check.js).
-FORMAT = 4
+FORMAT = 5
 # The build warns when this share of the heap's budget is in use.
 WARN_SHARE = 0.8
 
 
-SPARSE_MAGIC = b"SPZ1"
-# Zero runs shorter than this stay in the chunks: each skipped run costs an 8-byte chunk header.
-MIN_ZERO_RUN = 256
+SPARSE_MAGIC = b"SPZ2"
+# Runs that match the base shorter than this stay in the chunks: each costs an 8-byte header.
+MIN_RUN = 256
 
 
-def sparse(snapshot: bytes, min_run: int = MIN_ZERO_RUN) -> bytes:
-    """`snapshot` without its zero runs of `min_run` bytes or more.
+def wasm_data_image(wasm: bytes) -> bytes:
+    """The memory a wasm module's data segments lay out at instantiation, up to the last one's
+    end: the interpreter's static data, before any code has run. Pyodide 314.0.x's segments
+    are all active, at constant offsets (WebAssembly core spec, 5.5.12 data section).
 
-    Layout (little-endian u32): b"SPZ1", full size, chunk count, then per chunk its offset,
-    its length and its bytes; everything outside the chunks is zero.
+    >>> module = bytes.fromhex("0061736d01000000" "0b08" "01" "00" "4102" "0b" "02" "6869")
+    >>> wasm_data_image(module)
+    b'\\x00\\x00hi'
+    """
+    def leb(at: int) -> tuple[int, int]:
+        value = shift = 0
+        while True:
+            byte = wasm[at]
+            at += 1
+            value |= (byte & 0x7F) << shift
+            shift += 7
+            if not byte & 0x80:
+                return value, at
+    image, at = bytearray(), 8
+    while at < len(wasm):
+        section, size_at = wasm[at], at + 1
+        size, at = leb(size_at)
+        end = at + size
+        if section == 11:
+            count, at = leb(at)
+            for _ in range(count):
+                kind, at = leb(at)
+                if kind != 0 or wasm[at] != 0x41:  # active, memory 0, offset (i32.const N)
+                    raise ValueError("a data segment that is not active at a constant offset")
+                offset, at = leb(at + 1)
+                if wasm[at] != 0x0B:
+                    raise ValueError("a data segment's offset is not one constant")
+                length, at = leb(at + 1)
+                if len(image) < offset + length:
+                    image.extend(bytes(offset + length - len(image)))
+                image[offset:offset + length] = wasm[at:at + length]
+                at += length
+        at = end
+    return bytes(image)
 
-    >>> data = b"ab" + bytes(300) + b"c"
-    >>> packed = sparse(data)
-    >>> len(packed) < len(data), unsparse(packed) == data
+
+def sparse(snapshot: bytes, base: bytes = b"", base_offset: int = 0, min_run: int = MIN_RUN) -> bytes:
+    """`snapshot` as the difference from what a fresh instance holds: `base` at `base_offset`
+    (the wasm's data segments, behind Pyodide's header), zero elsewhere. Runs of `min_run`
+    bytes or more that match are left out.
+
+    Layout (little-endian u32): b"SPZ2", full size, base offset, base length, chunk count,
+    then per chunk its offset, its length and its bytes; outside the chunks the snapshot is
+    the base (the worker takes it from the instance's memory before any code runs) or zero.
+
+    >>> data = b"ab" + bytes(300) + b"c" + b"xy" * 200
+    >>> packed = sparse(data, b"xy" * 200, 303)
+    >>> len(packed) < 40, unsparse(packed, b"xy" * 200) == data
     (True, True)
     """
+    expected = bytearray(len(snapshot))
+    expected[base_offset:base_offset + len(base)] = base
+    differ = bytes(np.bitwise_xor(np.frombuffer(snapshot, np.uint8), np.frombuffer(bytes(expected), np.uint8)))
     chunks, start = [], 0
-    for run in re.finditer(rb"\x00{%d,}" % min_run, snapshot):
+    for run in re.finditer(rb"\x00{%d,}" % min_run, differ):
         if run.start() > start:
             chunks.append((start, snapshot[start:run.start()]))
         start = run.end()
     if start < len(snapshot):
         chunks.append((start, snapshot[start:]))
-    parts = [SPARSE_MAGIC, struct.pack("<II", len(snapshot), len(chunks))]
+    parts = [SPARSE_MAGIC, struct.pack("<IIII", len(snapshot), base_offset, len(base), len(chunks))]
     for offset, data in chunks:
         parts += [struct.pack("<II", offset, len(data)), data]
     return b"".join(parts)
 
 
-def unsparse(packed: bytes) -> bytes:
+def unsparse(packed: bytes, base: bytes) -> bytes:
     """The full snapshot back from `sparse` (the worker does the same in JavaScript)."""
     if packed[:4] != SPARSE_MAGIC:
         raise ValueError("not a stored snapshot")
-    size, count = struct.unpack_from("<II", packed, 4)
-    out, at = bytearray(size), 12
+    size, base_offset, base_length, count = struct.unpack_from("<IIII", packed, 4)
+    out, at = bytearray(size), 20
+    out[base_offset:base_offset + base_length] = base[:base_length]
     for _ in range(count):
         offset, length = struct.unpack_from("<II", packed, at)
         at += 8
         out[offset:offset + length] = packed[at:at + length]
         at += length
     return bytes(out)
+
+
+def stored_base(pyodide_dir: Path) -> bytes:
+    """The base a stored snapshot of this build is the difference from."""
+    return wasm_data_image((pyodide_dir / "pyodide.asm.wasm").read_bytes())
 
 
 def heap_bytes(snapshot: bytes) -> int:
@@ -147,12 +202,12 @@ def write_snapshot(pyodide_dir: Path) -> dict:
     if heap["share"] >= WARN_SHARE:
         print(f"build: WARNING the snapshot heap is {heap['share']:.0%} full (warned from "
               f"{WARN_SHARE:.0%}); past its budget the build fails", file=sys.stderr)
-    stored = sparse(data)
+    stored = sparse(data, stored_base(pyodide_dir), int.from_bytes(data[4:8], "little"))
     (pyodide_dir / SNAPSHOT).write_bytes(stored)
     meta = {
         "format": FORMAT,
         "file": SNAPSHOT,
-        "encoding": "SPZ1 zero runs left out",
+        "encoding": "SPZ2: the difference from the wasm's data segments",
         "wheel_sha256": wheel_sha,
         "pyodide": version,
         "bytes": len(data),

@@ -6,11 +6,12 @@
 // recorded. Anything else (missing, corrupt, another build, too big for the 30 MiB heap
 // Pyodide 314.0.x restores into) rejects with the reason, and the worker boots the normal way.
 import { timed } from "./boot-phases.js";
+import { pristineMemory } from "./wasm-early.js";
 
-const FORMAT = 4; // sitebuild/snapshot.py's FORMAT
+const FORMAT = 5; // sitebuild/snapshot.py's FORMAT
 const DEFAULT_HEAP_BYTES = 30 * 1024 * 1024;
 const SNAPSHOT_FILE = "snapshot.bin";
-const SPARSE_MAGIC = 0x315a5053; // "SPZ1" little-endian
+const SPARSE_MAGIC = 0x325a5053; // "SPZ2" little-endian
 
 function hex(buffer) {
   return Array.from(new Uint8Array(buffer), (b) => b.toString(16).padStart(2, "0")).join("");
@@ -20,16 +21,19 @@ function hex(buffer) {
 // Pyodide refuses outright ("invalid magic number"), so a fill that fails leaves them zero.
 const HEADER_BYTES = 16;
 
-// The stored form leaves out the heap's long runs of zero bytes (sitebuild/snapshot.py):
-// "SPZ1", the full size, the number of chunks, then per chunk its offset, length and bytes.
-// Written into `out`, a zeroed buffer of the full size.
-function expand(stored, out) {
+// The stored form is the difference from what a fresh instance holds (sitebuild/snapshot.py):
+// "SPZ2", the full size, the base's offset and length, the number of chunks, then per chunk
+// its offset, length and bytes. Outside the chunks the snapshot is the base (the wasm's
+// static data, from `pristine`, its memory at instantiation) or zero. Written into `out`, a
+// zeroed buffer of the full size.
+function expand(stored, pristine, out) {
   const view = new DataView(stored.buffer, stored.byteOffset, stored.byteLength);
-  if (stored.length < 12 || view.getUint32(0, true) !== SPARSE_MAGIC) throw new Error("snapshot is corrupt (not a stored snapshot)");
-  const size = view.getUint32(4, true);
-  const count = view.getUint32(8, true);
+  if (stored.length < 20 || view.getUint32(0, true) !== SPARSE_MAGIC) throw new Error("snapshot is corrupt (not a stored snapshot)");
+  const [size, baseOffset, baseLength, count] = [4, 8, 12, 16].map((at) => view.getUint32(at, true));
   if (size !== out.length) throw new Error(`snapshot expands to ${size} bytes, not ${out.length}`);
-  let at = 12;
+  if (!pristine || baseLength > pristine.length || baseOffset + baseLength > size) throw new Error("snapshot's base is not this wasm's memory");
+  out.set(pristine.subarray(0, baseLength), baseOffset);
+  let at = 20;
   for (let i = 0; i < count; i++) {
     if (at + 8 > stored.length) throw new Error("snapshot is corrupt (chunk table)");
     const offset = view.getUint32(at, true);
@@ -76,14 +80,16 @@ export function requestSnapshot(pyodideURL, lockRequest) {
   // The digest runs beside the restore; verify() checks it before the interpreter is used.
   const digest = stored.then((data) => timed("snapshot digest", crypto.subtle.digest("SHA-256", data))).then(hex);
   let buffer = meta.then((found) => new Uint8Array(found.bytes));
-  const fill = Promise.all([buffer, stored]).then(([out, data]) => timed("snapshot decode", () => {
+  const fill = Promise.all([buffer, stored, pristineMemory()]).then(([out, data, base]) => timed("snapshot decode", () => {
     try {
-      expand(data, out);
+      expand(data, base, out);
     } catch (err) {
       out.fill(0, 0, HEADER_BYTES);
       throw err;
     }
   }));
+  let fillError = null;
+  fill.catch((err) => { fillError = err; });
   // Awaited only later: marked handled so an early rejection is not reported as unhandled
   // (it still fails the restore, which falls back).
   for (const promise of [metaRequest, storedRequest, meta, stored, digest, buffer, fill]) promise.catch(() => {});
@@ -93,8 +99,8 @@ export function requestSnapshot(pyodideURL, lockRequest) {
     buffer: () => buffer,
     // Settles, never rejects, once the buffer is whole or the fill has failed: Pyodide's fsInit.
     filled: () => fill.then(() => undefined, () => undefined),
-    // Why the fill failed, or null: the reason a refused restore reports.
-    failure: () => fill.then(() => null, (err) => err),
+    // Why the fill failed, if it has: the reason a refused restore reports.
+    failure: () => fillError,
     // Throws unless the restored interpreter is this build's and answers as its maker did;
     // returns how long the self-check took.
     async verify(pyodide) {

@@ -43,8 +43,12 @@ def test_the_built_snapshot_belongs_to_this_build(dist):
     stored = (dist / "pyodide" / meta["file"]).read_bytes()
     assert meta["wheel_sha256"] == lock["packages"]["sumpside"]["sha256"]
     assert (len(stored), hashlib.sha256(stored).hexdigest()) == (meta["stored_bytes"], meta["sha256"])
-    full = snapshot.unsparse(stored)
-    assert len(full) == meta["bytes"] and full[:4] != stored[:4]  # the stored form is the sparse one
+    base = snapshot.stored_base(dist / "pyodide")
+    full = snapshot.unsparse(stored, base)
+    assert len(full) == meta["bytes"] and full[:4] != stored[:4]  # the stored form is the difference
+    # ... from the wasm's static data, which sits in the snapshot's memory behind the header.
+    offset = int.from_bytes(full[4:8], "little")
+    assert full[offset:offset + 1024] == base[:1024] and len(stored) < len(snapshot.sparse(full))
     assert snapshot.heap_bytes(full) == meta["heap_bytes"]
     # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
     assert meta["heap_bytes"] <= 30 * 1024 * 1024
@@ -95,8 +99,9 @@ def _break(folder, how: str) -> None:
         meta["quick_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
     elif how == "too-big":
         # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
-        full = snapshot.unsparse(snap.read_bytes()) + bytes(1024 * 1024)
-        data = snapshot.sparse(full)
+        base = snapshot.stored_base(pyo)
+        full = snapshot.unsparse(snap.read_bytes(), base) + bytes(1024 * 1024)
+        data = snapshot.sparse(full, base, int.from_bytes(full[4:8], "little"))
         snap.write_bytes(data)
         meta.update(bytes=len(full), stored_bytes=len(data), sha256=hashlib.sha256(data).hexdigest())
     meta_path.write_text(json.dumps(meta))
