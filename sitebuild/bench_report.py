@@ -112,7 +112,7 @@ def targets(result: dict) -> list[tuple[str, str, str, bool | None]]:
             for phase in ("warm_reload", "offline_reload"):
                 ratio = block["ratio"][phase]
                 rows.append((f"first answer, {dict(PHASES)[phase]}, {label}", "<= 0.22 x bare",
-                             "–" if ratio is None else f"{ratio:.2f} x bare",
+                             "–" if ratio is None else f"{ratio:.3f} x bare",
                              ratio is not None and ratio <= 0.22))
     median = result["latency"]["submitted"]["median"]
     rows.append(("input change to answer, median", "< 20 ms", f"{median:.1f} ms", median < 20))
