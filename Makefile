@@ -2,7 +2,8 @@
 #   make serve   set up, build dist/, serve it on http://127.0.0.1:8000
 #   make test    set up (Chromium too, as root), build, run every test
 #   make bench   set up, build, run the start-up and latency benchmark
-.PHONY: setup chromium build serve test test-calc bench clean
+#   make lock    refresh constraints.txt: the newest releases pyproject.toml allows, pinned
+.PHONY: setup chromium build serve test test-calc bench lock clean
 
 VENV      := .venv
 PY        := $(VENV)/bin/python
@@ -10,6 +11,9 @@ STAMP     := $(VENV)/.installed
 NODE_STAMP := node_modules/.installed
 WHEELS    := .cache/pyodide-wheels
 WHEELS_STAMP := $(WHEELS)/.installed
+# Every build and test tool at an exact version, so two fresh clones build with the same tools.
+CONSTRAINTS := constraints.txt
+LOCK_VENV := .cache/lock-venv
 CHROMIUM  := /usr/bin/chromium
 # pyodide-build needs Python >= 3.12: take the first one found.
 PYTHON312 := $(shell for p in python3.13 python3.12 $$HOME/.pyenv/versions/3.13*/bin/python3 \
@@ -21,12 +25,25 @@ PYODIDE_TEST_PACKAGES := pytest pluggy iniconfig packaging pygments hypothesis s
 
 setup: $(STAMP) $(NODE_STAMP) $(WHEELS_STAMP)
 
-$(STAMP): pyproject.toml
+$(STAMP): pyproject.toml $(CONSTRAINTS)
 	@test -n "$(PYTHON312)" || { echo "make: no Python >= 3.12 found (pyodide-build needs one)"; exit 1; }
 	$(PYTHON312) -m venv $(VENV)
-	$(PY) -m pip install --quiet --upgrade pip
-	$(PY) -m pip install --quiet -e ".[dev]"
+	# PIP_CONSTRAINT also reaches the isolated environment that builds the editable install.
+	PIP_CONSTRAINT=$(CONSTRAINTS) $(PY) -m pip install --quiet pip
+	PIP_CONSTRAINT=$(CONSTRAINTS) $(PY) -m pip install --quiet -e ".[dev]"
 	touch $@
+
+# A scratch environment takes the newest releases pyproject.toml allows; its exact versions
+# become the new constraints.txt. Review the diff, then `make test`.
+lock:
+	@test -n "$(PYTHON312)" || { echo "make: no Python >= 3.12 found (pyodide-build needs one)"; exit 1; }
+	rm -rf $(LOCK_VENV) && $(PYTHON312) -m venv $(LOCK_VENV)
+	$(LOCK_VENV)/bin/python -m pip install --quiet --upgrade pip setuptools
+	$(LOCK_VENV)/bin/python -m pip install --quiet -e ".[dev]"
+	{ echo "# Exact versions of the build and test tools (pyproject.toml's dev extra), for"; \
+	  echo "# Python $$($(LOCK_VENV)/bin/python -c 'import platform; print(platform.python_version())'). Made by \`make lock\`; do not edit by hand."; \
+	  $(LOCK_VENV)/bin/python -m pip freeze --all --exclude-editable; } > $(CONSTRAINTS)
+	rm -rf $(LOCK_VENV)
 
 $(NODE_STAMP): package.json package-lock.json
 	npm ci --no-audit --no-fund

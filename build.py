@@ -6,9 +6,11 @@
 Steps: render the page with jinja2 (each tool's form from the registry, help and
 checklists from markdown), pack calc as a pure-Python wheel, add it to a copy of
 Pyodide's lock file with pyodide-build's lock-file command, copy the pinned
-Pyodide core, write icons, the web manifest and the service worker with its
-precache list and build hash. Every URL is relative, so dist/ works under any
-path of any static host.
+Pyodide core with only the stdlib files the app imports, make the memory
+snapshot, write icons, the web manifest and the service worker with its
+precache list (each file's hash) and the build id, then the brotli and gzip
+twins. Every URL is relative, so dist/ works under any path of any static host.
+The same sources give the same bytes (tests/build/test_reproducible.py).
 """
 
 from __future__ import annotations
@@ -28,7 +30,7 @@ from pathlib import Path
 
 import jinja2
 
-from sitebuild import content, icons, serve, snapshot
+from sitebuild import compress, content, icons, serve, snapshot, stdlib
 
 ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
@@ -158,18 +160,25 @@ def precache_list(dist: Path) -> list[str]:
     return [f for f in files if f != "sw.js"]
 
 
-def build_hash(dist: Path, files: list[str]) -> str:
-    digest = hashlib.sha256()
-    for name in files:
-        digest.update(name.encode() + b"\0" + (dist / name).read_bytes())
-    return digest.hexdigest()[:12]
+def precache_manifest(dist: Path) -> list[dict]:
+    """Each precached file with the sha256 of its bytes as a subresource-integrity string:
+    the service worker fetches a file only when this changed, and checks what it gets."""
+    return [{"url": name, "integrity": "sha256-" + base64.b64encode(
+                hashlib.sha256((dist / name).read_bytes()).digest()).decode()}
+            for name in precache_list(dist)]
 
 
-def write_service_worker(dist: Path, files: list[str], build_id: str) -> None:
+def build_hash(manifest: list[dict]) -> str:
+    """The build id: a digest of every file's name and hash, so the same sources give the
+    same id and any change to any file gives another."""
+    lines = "".join(f"{entry['url']} {entry['integrity']}\n" for entry in manifest)
+    return hashlib.sha256(lines.encode()).hexdigest()[:12]
+
+
+def write_service_worker(dist: Path, manifest: list[dict], build_id: str) -> None:
     template = (SITE / "sw.js").read_text(encoding="utf-8")
-    precache = ["./"] + [f for f in files if f != "index.html"] + ["index.html"]
     text = template.replace('"__BUILD_ID__"', json.dumps(build_id)).replace(
-        "[/* __PRECACHE__ */]", json.dumps(precache, indent=2))
+        "[/* __PRECACHE__ */]", json.dumps(manifest, indent=2))
     (dist / "sw.js").write_text(text, encoding="utf-8")
 
 
@@ -182,6 +191,8 @@ def build(dist: Path = DIST) -> str:
     pyodide_version = copy_pyodide(pyodide_dir)
     wheel = build_wheel(pyodide_dir)
     write_lock_file(wheel, pyodide_dir)
+    # Only the stdlib files the app imports (sitebuild/stdlib.py), before the snapshot is made.
+    stdlib.write_stdlib(pyodide_dir, PYODIDE_NPM / stdlib.NAME)
     copy_static(dist)
     # The worker boots from this memory snapshot (sitebuild/snapshot.py); it is precached too.
     snapshot.write_snapshot(pyodide_dir)
@@ -189,16 +200,16 @@ def build(dist: Path = DIST) -> str:
     write_manifest(dist)
     # The page shows its build id: hash the page with a token in the id's place, then fill it in.
     render_pages(dist, BUILD_ID_TOKEN, pyodide_version)
-    build_id = build_hash(dist, precache_list(dist))
+    build_id = build_hash(precache_manifest(dist))
     page = dist / "index.html"
     page.write_text(page.read_text(encoding="utf-8").replace(BUILD_ID_TOKEN, build_id),
                     encoding="utf-8")
     (dist / "build.json").write_text(json.dumps(
         {"build": build_id, "pyodide": pyodide_version, "version": project_meta()["version"],
          "wheel": wheel.name}, indent=2), encoding="utf-8")
-    write_service_worker(dist, precache_list(dist), build_id)
+    write_service_worker(dist, precache_manifest(dist), build_id)
     # Wire encodings only, after the precache list: the cache keeps the decoded bytes.
-    snapshot.write_gzip_twins(dist)
+    compress.write_twins(dist)
     return build_id
 
 

@@ -1,24 +1,67 @@
-// Service worker: the whole build under one versioned cache, offline after the first visit.
-// build.py fills in BUILD and PRECACHE. A new build is cached whole while the old one keeps
-// serving; it takes over only when the page asks (the user tapped "Use it now") and then
-// the old caches are deleted. Requests to other origins are never made or answered here.
+// Service worker: every file of the build in one cache per build, offline after the first
+// visit. build.py fills in BUILD and PRECACHE: each file's URL and the sha256 of its bytes, as
+// a subresource-integrity string.
+//
+// A new build costs only what changed: its worker copies each file whose hash an older
+// build's cache already holds and fetches the others, which the browser checks against their
+// hash (fetch's integrity option) before anything is stored. The new build is installed only
+// when every file is in place; a refused, failed or partial download leaves the old build
+// serving, whole (what did arrive, checked, is kept for the next try). It takes over only
+// when the page asks (the user tapped "Use it now"); then the other caches are deleted.
+// Requests to other origins are never made or answered here.
 const BUILD = "__BUILD_ID__";
 const PRECACHE = [/* __PRECACHE__ */];
-const CACHE = "sumpside-" + BUILD;
+const PREFIX = "sumpside-";
+const CACHE = PREFIX + BUILD;
+// Each cached response carries the hash it was checked against, so a later build can tell
+// whether it may reuse it.
+const INTEGRITY = "x-sumpside-integrity";
+
+async function holding(cache, entry) {
+  const hit = await cache.match(entry.url);
+  return hit && hit.headers.get(INTEGRITY) === entry.integrity ? hit : null;
+}
+
+function checkedFetch(entry, mode) {
+  return fetch(new Request(entry.url, { cache: mode, integrity: entry.integrity })).then((response) => {
+    if (!response.ok) throw new Error(`${entry.url}: HTTP ${response.status}`);
+    return response;
+  });
+}
+
+async function download(entry) {
+  // no-cache revalidates with the server, so a file the page has just loaded comes back as a
+  // small 304 and a changed one in full. Should the browser's HTTP cache still hold other
+  // bytes under a date the server confirms, the check refuses them: ask once more, past it.
+  const response = await checkedFetch(entry, "no-cache").catch(() => checkedFetch(entry, "reload"));
+  const headers = new Headers(response.headers);
+  // The cache holds the decoded bytes: the wire's encoding and length no longer apply.
+  headers.delete("content-encoding");
+  headers.delete("content-length");
+  headers.set(INTEGRITY, entry.integrity);
+  return new Response(await response.blob(), { status: 200, statusText: "OK", headers });
+}
 
 self.addEventListener("install", (event) => {
   event.waitUntil((async () => {
+    const older = await Promise.all((await caches.keys())
+      .filter((name) => name.startsWith(PREFIX) && name !== CACHE).map((name) => caches.open(name)));
     const cache = await caches.open(CACHE);
-    // cache: "no-cache" revalidates every file with the server, so a new build never mixes in
-    // old files, while a file the page has just loaded comes back as a small 304.
-    await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "no-cache" })));
+    await Promise.all(PRECACHE.map(async (entry) => {
+      if (await holding(cache, entry)) return;
+      for (const old of older) {
+        const copy = await holding(old, entry);
+        if (copy) return cache.put(entry.url, copy);
+      }
+      return cache.put(entry.url, await download(entry));
+    }));
   })());
 });
 
 self.addEventListener("activate", (event) => {
   event.waitUntil((async () => {
     const names = await caches.keys();
-    await Promise.all(names.filter((n) => n.startsWith("sumpside-") && n !== CACHE)
+    await Promise.all(names.filter((n) => n.startsWith(PREFIX) && n !== CACHE)
       .map((n) => caches.delete(n)));
     await self.clients.claim();
   })());

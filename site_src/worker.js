@@ -5,11 +5,14 @@
 // Fast path: restore the memory snapshot build.py made (an interpreter that already imported
 // calc and ran every tool), once js/snapshot-check.js has found it to be this build's; else
 // the normal boot, and the status line says why. Either way calc.bridge.self_check() passes
-// before the worker says "ready". _loadSnapshot is an experimental, underscore-named option
-// of the pinned Pyodide.
+// before the worker says "ready": its sample (the first tool of each topic) on a restored
+// snapshot, whose bytes are checked already; every tool on a normal boot. js/boot-phases.js
+// keeps when each step ran. _loadSnapshot is an experimental, underscore-named option of the
+// pinned Pyodide.
 import { loadPyodide } from "./pyodide/pyodide.mjs";
 import { requestSnapshot } from "./js/snapshot-check.js";
 import { compileEarly } from "./js/wasm-early.js";
+import { phases, timed } from "./js/boot-phases.js";
 
 const base = new URL("./", import.meta.url);
 const pyodideURL = new URL("pyodide/", base);
@@ -41,13 +44,15 @@ async function fetchJSON(name) {
 compileEarly(new URL("pyodide.asm.wasm", pyodideURL).href);
 
 // Everything a restore needs is asked for as soon as the worker starts, and loadPyodide
-// starts at once too, with promises of the lock file and the snapshot: reading the snapshot
-// from the cache then overlaps with Pyodide loading its own script.
+// starts at once too, with promises of the lock file and the snapshot's buffer: reading and
+// decoding the snapshot then overlap with Pyodide loading its script and instantiating.
 const lockRequest = fetchJSON("pyodide-lock.json");
 let snapshot = requestSnapshot(pyodideURL, lockRequest);
 
 async function bootSnapshot() {
-  const pyodide = await loadPyodide({ ...options(lockRequest), _loadSnapshot: snapshot.bytes() });
+  const load = loadPyodide({ ...options(lockRequest), _loadSnapshot: snapshot.buffer(), fsInit: snapshot.filled });
+  // A refused fill leaves Pyodide a buffer it rejects ("invalid magic number"): say why instead.
+  const pyodide = await timed("pyodide load", load).catch((err) => { throw snapshot.failure() || err; });
   const checkMs = await snapshot.verify(pyodide);
   // A restored interpreter starts with the snapshot's random state: give it a fresh one.
   pyodide.runPython("import random; random.seed()");
@@ -71,12 +76,12 @@ async function layDownWheel(pyodide, lock) {
 }
 
 async function bootNormal(lock) {
-  const pyodide = await loadPyodide(options(lock));
-  await pyodide.loadPackage("sumpside", { messageCallback: () => {}, errorCallback: (m) => console.warn(m) });
+  const pyodide = await timed("pyodide load", loadPyodide(options(lock)));
+  await timed("calc load", pyodide.loadPackage("sumpside", { messageCallback: () => {}, errorCallback: (m) => console.warn(m) }));
   bridge = pyodide.pyimport("calc.bridge");
   // Every tool answers once before "ready": a broken wheel shows here, not at the first tap.
   const started = performance.now();
-  const check = JSON.parse(bridge.self_check());
+  const check = JSON.parse(timed("self-check", () => bridge.self_check()));
   if (!check.ok) throw new Error("calculator self-check failed (" + check.failed.join(", ") + ")");
   return Math.round(performance.now() - started);
 }
@@ -87,7 +92,7 @@ async function boot() {
   let note = "";
   try {
     const checkMs = await bootSnapshot().finally(() => { snapshot.release(); snapshot = null; });
-    postMessage({ type: "ready", ms: Math.round(performance.now()), mode: "snapshot", checkMs });
+    postMessage({ type: "ready", ms: Math.round(performance.now()), mode: "snapshot", checkMs, phases });
     return;
   } catch (err) {
     note = String(err && err.message ? err.message : err);
@@ -97,7 +102,7 @@ async function boot() {
       { mode: "normal", note });
   }
   const checkMs = await bootNormal(await lockRequest);
-  postMessage({ type: "ready", ms: Math.round(performance.now()), mode: "normal", note, checkMs });
+  postMessage({ type: "ready", ms: Math.round(performance.now()), mode: "normal", note, checkMs, phases });
 }
 
 const booted = boot().catch((err) => {
@@ -105,12 +110,17 @@ const booted = boot().catch((err) => {
   throw err;
 });
 
+let firstCall = true;
+
 self.onmessage = async (event) => {
   const { id, op, request } = event.data || {};
   try {
     await booted;
     if (!(op in ENTRIES)) throw new Error("unknown request " + op);
-    postMessage({ type: "answer", id, answer: JSON.parse(bridge[ENTRIES[op]](JSON.stringify(request))) });
+    const call = () => JSON.parse(bridge[ENTRIES[op]](JSON.stringify(request)));
+    const answer = firstCall && op === "run" ? timed("first call", call) : call();
+    if (op === "run") firstCall = false;
+    postMessage({ type: "answer", id, answer });
   } catch (err) {
     postMessage({ type: "answer", id, answer: { tool: request && request.tool, ok: false,
       errors: [{ field: "calculator", message: String(err && err.message ? err.message : err) }] } });

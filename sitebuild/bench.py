@@ -3,7 +3,7 @@
     python -m sitebuild.bench [--repeat 3] [--changes 300] [--out bench/results/latest.json]
 
 `make bench` builds first, then runs this. It copies dist/ to a temporary folder, writes
-beside it a bare page that only boots the same Pyodide (same files, same .gz twins, same
+beside it a bare page that only boots the same Pyodide (same files, same twins, same
 kind of service worker) the plain way in a module worker and computes one Python
 expression, serves both with sitebuild.serve on 127.0.0.1 and drives Debian's Chromium
 with Playwright. Every figure is the median of --repeat runs, each in a fresh browser
@@ -20,13 +20,22 @@ context; times are milliseconds from navigation start (the page's performance.no
 - input change to answer: a changed value of that tool's first number field submitted (the
   form computes at once on submit) until the new answer is in the page, over --changes
   changes; and, for a few, a typed change, which waits for the page's typing pause first;
-- bytes on a first visit by file, raw and as sent (the .gz twin when there is one);
+- the first answer in its parts (sitebuild/bench_report.py): when each of the worker's boot
+  steps ran (js/boot-phases.js: snapshot read, decode and digest, wasm compile and
+  instantiate, Pyodide's load and restore, self-check, first call) and its cache reads
+  (resource timing), ms from navigation;
+- bytes on a first visit by file, raw and as the server sent them (it serves the .br twin
+  to Chromium, as a host would), counted at the server;
+- bytes of an update: a phone holding this build gets a build that differs in one help page
+  (sitebuild/variant.py); what the server sends until the new build is installed;
+- the snapshot heap in use against its budget (dist/pyodide/snapshot.json, from the build);
 - the boot figures again with Chromium's renderers held to a quarter of the CPU (see
   Throttle: CDP's CPU throttling does not reach workers) as a stand-in for a mid-range phone;
 - the machine kit with 200 machines and 20,000 readings on the phone, at a quarter of the
   CPU: the machines list and a machine page with 1,000 readings (sitebuild/bench_machines).
 
-It prints one table and writes the JSON. Nothing here asserts a time: tests never do.
+It prints the tables and the issue's targets against what it measured, and writes the JSON.
+Nothing here asserts a time: tests never do.
 """
 
 from __future__ import annotations
@@ -45,7 +54,7 @@ import time
 from pathlib import Path
 from urllib.parse import urlparse
 
-from sitebuild import bench_machines, serve
+from sitebuild import bench_machines, bench_report, serve, variant
 
 ROOT = Path(__file__).resolve().parent.parent
 DIST = ROOT / "dist"
@@ -171,9 +180,9 @@ def write_bare_page(target: Path, dist: Path) -> None:
     pyo = target / "pyodide"
     pyo.mkdir(parents=True)
     for name in PYODIDE_CORE + ("pyodide-lock.json",):
-        for variant in (name, name + ".gz"):
-            if (dist / "pyodide" / variant).exists():
-                shutil.copy2(dist / "pyodide" / variant, pyo / variant)
+        for copy in (name, name + ".br", name + ".gz"):
+            if (dist / "pyodide" / copy).exists():
+                shutil.copy2(dist / "pyodide" / copy, pyo / copy)
     (target / "index.html").write_text(BARE_PAGE, encoding="utf-8")
     (target / "bare.js").write_text(BARE_JS, encoding="utf-8")
     (target / "bare-worker.js").write_text(BARE_WORKER, encoding="utf-8")
@@ -271,12 +280,32 @@ class Throttle:
             self._signal(self._renderers() or pids, signal.SIGCONT)
 
 
-def one_visit_cycle(browser, url: str, timed: dict, rate: float, watch_bytes: bool = False) -> dict:
-    """First visit, warm reload and offline reload of one page in a fresh context."""
+# The worker's boot steps (js/boot-phases.js) and its cache reads, with its time origin.
+WORKER_PARTS = """() => ({ origin: performance.timeOrigin, phases: self.bootPhases || {},
+  reads: performance.getEntriesByType("resource").map((e) => [e.name, e.startTime, e.responseEnd]) })"""
+
+
+def boot_parts(page) -> dict | None:
+    """When each boot step of the page's calculator worker ran: name -> [start, end] in ms
+    from navigation; cache reads as "read FILE"; "worker start" is the worker's creation."""
+    worker = next((w for w in page.workers if urlparse(w.url).path.endswith("/worker.js")), None)
+    if worker is None:
+        return None
+    found = worker.evaluate(WORKER_PARTS)
+    shift = found["origin"] - page.evaluate("performance.timeOrigin")
+    parts = {"worker start": [round(shift), round(shift)]}
+    for name, (start, end) in found["phases"].items():
+        parts[name] = [round(start + shift), round(end + shift)]
+    for url, start, end in found["reads"]:  # the first read of each file
+        parts.setdefault("read " + urlparse(url).path.rsplit("/", 1)[-1], [round(start + shift), round(end + shift)])
+    return parts
+
+
+def one_visit_cycle(browser, url: str, timed: dict, rate: float, sent: list | None = None) -> dict:
+    """First visit, warm reload and offline reload of one page in a fresh context; with the
+    server's `sent`, how many responses the first visit took (until the build is cached)."""
+    mark = len(sent) if sent is not None else 0
     context = browser.new_context(viewport=PHONE, service_workers="allow")
-    requests = []
-    if watch_bytes:
-        context.on("requestfinished", lambda r: requests.append(r))
     page = context.new_page()
     page.add_init_script(init_script(timed))
     figures = {}
@@ -292,14 +321,15 @@ def one_visit_cycle(browser, url: str, timed: dict, rate: float, watch_bytes: bo
                 page.reload()
             page.wait_for_function("() => window.__answerAt !== null", timeout=TIMEOUT_MS, polling=50)
             figures[phase] = page.evaluate(READ_TIMES)
+            figures[phase]["parts"] = boot_parts(page)
             if phase == "first_visit":
                 # Reloads count only once the service worker holds the whole build.
                 page.wait_for_function("() => navigator.serviceWorker.controller !== null",
                                        timeout=TIMEOUT_MS, polling=100)
                 page.evaluate("() => navigator.serviceWorker.ready.then(() => true)")
-                if watch_bytes:
-                    time.sleep(0.5)
-                    figures["requests"] = [(r.url, _body_size(r)) for r in requests]
+                if sent is not None:
+                    page.wait_for_timeout(2000)  # the worker's late read (the wheel's files)
+                    figures["first_visit_responses"] = len(sent) - mark
     finally:
         throttle.__exit__(None, None, None)
         context.close()
@@ -307,11 +337,48 @@ def one_visit_cycle(browser, url: str, timed: dict, rate: float, watch_bytes: bo
     return figures
 
 
-def _body_size(request):
+def update_cost(browser, site: Path, base: str, sent: list, timed: dict, build_b: Path) -> dict:
+    """What a phone holding this build downloads for build B: a fresh visit until the service
+    worker holds the whole build, then B in the site's place and an update check, until B's
+    worker is installed (or refused); the bytes are the server's, as sent."""
+    context = browser.new_context(viewport=PHONE, service_workers="allow")
+    page = context.new_page()
+    page.add_init_script(init_script(timed))
     try:
-        return request.sizes()["responseBodySize"]
-    except Exception:  # noqa: BLE001 - a request without a response body
-        return None
+        page.goto(f"{base}app/#/tool/{timed['tool']}")
+        page.wait_for_function("() => navigator.serviceWorker.controller !== null",
+                               timeout=TIMEOUT_MS, polling=100)
+        page.wait_for_timeout(2000)  # the worker's late reads (the wheel's files) are done
+        del sent[:]
+        shutil.rmtree(site)
+        shutil.copytree(build_b, site)
+        outcome = page.evaluate(variant.UPDATE_CHECK)
+        got = list(sent)
+    finally:
+        context.close()
+    files = sorted(urlparse(s.path).path.split("/app/", 1)[-1] for s in got)
+    return {"outcome": outcome, "files": files, "requests": len(got),
+            "bytes": sum(s.bytes for s in got)}
+
+
+def first_visit_bytes(sent: list, site: Path) -> dict:
+    """The first visit's responses (page, worker and precache), by file: raw size on disk,
+    requests, and bytes as the server sent them (a twin when the browser accepted one)."""
+    rows: dict[str, dict] = {}
+    for s in sent:
+        rel = urlparse(s.path).path.split("/app/", 1)[-1] or "index.html"
+        disk = site / rel
+        if not disk.is_file():
+            continue
+        row = rows.setdefault(rel, {"file": rel, "requests": 0, "raw": disk.stat().st_size, "sent": 0,
+                                    "encoding": s.encoding or "identity"})
+        row["requests"] += 1
+        row["sent"] += s.bytes
+    files = sorted(rows.values(), key=lambda r: -r["sent"])
+    own = [f for f in files if is_app_own(f["file"])]
+    return {"files": files, "requests": sum(f["requests"] for f in files),
+            "raw_total": sum(f["raw"] for f in files), "sent_total": sum(f["sent"] for f in files),
+            "app_own_raw": sum(f["raw"] for f in own), "app_own_sent": sum(f["sent"] for f in own)}
 
 
 def latency(browser, url: str, timed: dict, changes: int) -> dict:
@@ -332,27 +399,6 @@ def latency(browser, url: str, timed: dict, changes: int) -> dict:
     }
 
 
-def bytes_by_file(requests, site: Path, prefix: str) -> list[dict]:
-    rows: dict[str, dict] = {}
-    for url, wire in requests:
-        path = urlparse(url).path
-        if not path.startswith(prefix):
-            continue
-        rel = path[len(prefix):] or "index.html"
-        if rel.endswith("/"):
-            rel += "index.html"
-        disk = site / prefix.strip("/") / rel
-        if not disk.is_file():
-            continue
-        twin = disk.with_name(disk.name + ".gz")
-        row = rows.setdefault(rel, {"file": rel, "requests": 0, "raw": disk.stat().st_size,
-                                    "compressed": (twin if twin.exists() else disk).stat().st_size,
-                                    "transferred": 0})
-        row["requests"] += 1
-        row["transferred"] += wire if wire is not None else row["compressed"]
-    return sorted(rows.values(), key=lambda r: -r["compressed"])
-
-
 def is_app_own(rel: str) -> bool:
     name = rel.rsplit("/", 1)[-1]
     return not (rel.startswith("pyodide/") and name in PYODIDE_CORE + SNAPSHOT_FILES)
@@ -365,6 +411,11 @@ def summarize(runs: list[dict]) -> dict:
                       for key in ("first_paint", "shell_usable", "answer", "worker_boot")}
         out[phase]["modes"] = sorted({str(r[phase]["mode"]) for r in runs})
         out[phase]["runs"] = [r[phase]["answer"] for r in runs]
+        parts = [r[phase]["parts"] or {} for r in runs]
+        names = sorted({name for p in parts for name in p}, key=lambda n: median(
+            [p[n][0] for p in parts if n in p]))
+        out[phase]["parts"] = {name: [median([p[name][k] for p in parts if name in p]) for k in (0, 1)]
+                               for name in names}
     out["renderers_throttled"] = max(r.get("renderers_throttled", 0) for r in runs)
     return out
 
@@ -375,60 +426,12 @@ def ratios(app: dict, bare: dict) -> dict:
             for phase in ("first_visit", "warm_reload", "offline_reload")}
 
 
-def table(result: dict) -> str:
-    def ms(v):
-        return "–" if v is None else f"{v:,.0f}"
-    lines = []
-    for label, key in (("CPU as is", "normal"), ("renderer CPU / 4", "throttled")):
-        block = result["boot"].get(key)
-        if not block:
-            continue
-        app, bare, ratio = block["app"], block["bare"], block["ratio"]
-        lines.append(f"Boot, {label} (median of {result['repeat']}, ms from navigation)")
-        lines.append(f"| {'':<16} | {'first paint':>11} | {'shell usable':>12} | {'worker boot':>11} "
-                     f"| {'answer (app)':>12} | {'answer (bare)':>13} | {'app / bare':>10} |")
-        lines.append("|" + "|".join("-" * w for w in (18, 13, 14, 13, 14, 15, 12)) + "|")
-        for phase, name in (("first_visit", "first visit"), ("warm_reload", "warm reload"),
-                            ("offline_reload", "offline reload")):
-            r = "–" if ratio[phase] is None else f"{ratio[phase]:.2f}"
-            lines.append(f"| {name:<16} | {ms(app[phase]['first_paint']):>11} | {ms(app[phase]['shell_usable']):>12} "
-                         f"| {ms(app[phase]['worker_boot']):>11} | {ms(app[phase]['answer']):>12} | {ms(bare[phase]['answer']):>13} | {r:>10} |")
-        extra = ""
-        if key == "throttled" and result["boot"].get("normal"):
-            slow = result["boot"]["throttled"]["bare"]["warm_reload"]["answer"] / \
-                result["boot"]["normal"]["bare"]["warm_reload"]["answer"]
-            extra = f"; the bare warm boot took {slow:.1f}x as long as unthrottled"
-        lines.append(f"app boot mode: {', '.join(app['warm_reload']['modes'])}{extra}")
-        lines.append("")
-    lat = result["latency"]
-    lines.append("Input change to answer (ms)")
-    lines.append(f"| {'':<34} | {'n':>4} | {'median':>7} | {'p95':>7} |")
-    lines.append("|" + "|".join("-" * w for w in (36, 6, 9, 9)) + "|")
-    lines.append(f"| {'submitted (computes at once)':<34} | {lat['submitted']['n']:>4} "
-                 f"| {lat['submitted']['median']:>7.1f} | {lat['submitted']['p95']:>7.1f} |")
-    lines.append(f"| {'typed (after the typing pause)':<34} | {lat['typed']['n']:>4} "
-                 f"| {lat['typed']['median']:>7.1f} | {lat['typed']['p95']:>7.1f} |")
-    lines.append("")
-    lines.append("Bytes on a first visit (requests: page and service worker precache)")
-    lines.append(f"| {'file':<40} | {'req':>3} | {'raw':>11} | {'compressed':>11} |")
-    lines.append("|" + "|".join("-" * w for w in (42, 5, 13, 13)) + "|")
-    for row in result["bytes"]["files"]:
-        lines.append(f"| {row['file']:<40} | {row['requests']:>3} | {row['raw']:>11,} | {row['compressed']:>11,} |")
-    b = result["bytes"]
-    lines.append(f"| {'all files (once each)':<40} | {'':>3} | {b['raw_total']:>11,} | {b['compressed_total']:>11,} |")
-    lines.append(f"| {'app own files (no Pyodide core, no snapshot)':<40} | {'':>3} | {b['app_own_raw']:>11,} "
-                 f"| {b['app_own_compressed']:>11,} |")
-    lines.append(f"transferred on the first visit, all requests: {b['transferred_total']:,} bytes")
-    if result.get("machine_kit"):
-        lines += ["", bench_machines.table(result["machine_kit"])]
-    return "\n".join(lines)
-
-
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--repeat", type=int, default=3, help="runs per figure (median reported)")
     parser.add_argument("--changes", type=int, default=300, help="input changes for the latency figure")
     parser.add_argument("--no-throttle", action="store_true", help="skip the 4x CPU throttled boots")
+    parser.add_argument("--no-update", action="store_true", help="skip the update (it builds once more)")
     parser.add_argument("--dist", type=Path, default=DIST)
     parser.add_argument("--out", type=Path, default=OUT)
     args = parser.parse_args(argv)
@@ -447,26 +450,33 @@ def main(argv: list[str] | None = None) -> int:
         site = Path(tmp)
         shutil.copytree(dist, site / "app")  # a copy: a build running meanwhile cannot disturb it
         write_bare_page(site / "bare", site / "app")
-        server, base = serve.start_in_thread(site)
+        build_b = None
+        if not args.no_update:
+            print("bench: building a variant with one help page changed", file=sys.stderr)
+            build_b = variant.build_with_one_help_change(site / "variant")
+        server, base = serve.start_in_thread(site, record=True)
         app_url, bare_url = f"{base}app/#/tool/{timed['tool']}", f"{base}bare/"
         result = {"when": time.strftime("%Y-%m-%dT%H:%M:%S%z"), "repeat": args.repeat,
                   "timed": {k: timed[k] for k in ("tool", "out", "field")},
-                  "machine": {"platform": platform.platform(), "cpus": __import__("os").cpu_count()},
-                  "build": json.loads((dist / "build.json").read_text()), "boot": {}}
+                  "machine": {"platform": platform.platform(), "cpus": os.cpu_count()},
+                  "build": json.loads((dist / "build.json").read_text()),
+                  "heap": json.loads((dist / "pyodide" / "snapshot.json").read_text()).get("heap"),
+                  "boot": {}}
         try:
             with sync_playwright() as playwright:
                 browser = playwright.chromium.launch(executable_path=CHROMIUM, headless=True, args=CHROMIUM_ARGS)
                 result["chromium"] = browser.version
                 rates = [("normal", 1)] + ([] if args.no_throttle else [("throttled", 4)])
-                byte_requests = None
                 for key, rate in rates:
                     app_runs, bare_runs = [], []
                     for i in range(args.repeat):
                         # Interleaved, so a load change on the machine hits both alike.
-                        first = key == "normal" and i == 0
-                        app_runs.append(one_visit_cycle(browser, app_url, timed, rate, watch_bytes=first))
-                        if first:
-                            byte_requests = app_runs[-1].pop("requests")
+                        if key == "normal" and i == 0:
+                            mark = len(server.sent)
+                            app_runs.append(one_visit_cycle(browser, app_url, timed, rate, server.sent))
+                            first_visit = server.sent[mark:mark + app_runs[-1]["first_visit_responses"]]
+                        else:
+                            app_runs.append(one_visit_cycle(browser, app_url, timed, rate))
                         bare_runs.append(one_visit_cycle(browser, bare_url, timed, rate))
                         print(f"bench: {key} run {i + 1}/{args.repeat}: app {app_runs[-1]['warm_reload']['answer']:.0f} ms "
                               f"warm, bare {bare_runs[-1]['warm_reload']['answer']:.0f} ms warm", file=sys.stderr)
@@ -475,20 +485,14 @@ def main(argv: list[str] | None = None) -> int:
                 result["latency"] = latency(browser, app_url, timed, args.changes)
                 result["machine_kit"] = bench_machines.machines_row(
                     browser, f"{base}app/", max(args.repeat, 5), Throttle, PHONE)
+                if build_b:
+                    result["update"] = update_cost(browser, site / "app", base, server.sent, timed, build_b)
+                    result["update"]["changed_help"] = variant.changed_help_page(ROOT).name
                 browser.close()
         finally:
             server.shutdown()
-        files = bytes_by_file(byte_requests or [], site, "/app/")
-        own = [f for f in files if is_app_own(f["file"])]
-        result["bytes"] = {
-            "files": files,
-            "raw_total": sum(f["raw"] for f in files),
-            "compressed_total": sum(f["compressed"] for f in files),
-            "transferred_total": sum(f["transferred"] for f in files),
-            "app_own_raw": sum(f["raw"] for f in own),
-            "app_own_compressed": sum(f["compressed"] for f in own),
-        }
-    text = table(result)
+        result["bytes"] = first_visit_bytes(first_visit, site / "app")
+    text = bench_report.table(result)
     result["table"] = text
     args.out.parent.mkdir(parents=True, exist_ok=True)
     args.out.write_text(json.dumps(result, indent=2, ensure_ascii=False), encoding="utf-8")

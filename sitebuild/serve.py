@@ -1,8 +1,11 @@
 """A small static server for dist/: right types, the app's security headers, loopback only.
 
 Used by `make serve`, by the browser tests (in a thread) and by the benchmark.
-It serves a file's ``.gz`` twin with ``Content-Encoding: gzip`` when the
-client accepts it, as a production static host would.
+As a production static host would, it serves a file's ``.br`` or ``.gz`` twin
+(build.py writes both) with its ``Content-Encoding``, picked by the client's
+``Accept-Encoding``: brotli when accepted, else gzip, else the file as it is.
+A server made with ``record=True`` keeps what it sent (``server.sent``), so the
+update test and the benchmark can count what a phone downloaded.
 """
 
 from __future__ import annotations
@@ -10,6 +13,7 @@ from __future__ import annotations
 import functools
 import http.server
 import threading
+from dataclasses import dataclass
 from pathlib import Path
 
 TYPES = {
@@ -30,55 +34,120 @@ CSP = ("default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; worker-src 'se
        "base-uri 'self'; form-action 'none'; frame-ancestors 'none'")
 
 
+# The twins build.py writes, best first, and the Content-Encoding each is sent with.
+ENCODINGS = (("br", ".br"), ("gzip", ".gz"))
+
+
+@dataclass
+class Sent:
+    """One response: the request's path, its status, the body's bytes and their encoding."""
+
+    path: str
+    status: int
+    bytes: int = 0
+    encoding: str = ""
+
+
+def accepted(header: str) -> set[str]:
+    """The codings an Accept-Encoding header accepts (q > 0), lower case.
+
+    >>> sorted(accepted("gzip, deflate, br;q=0.5, zstd;q=0"))
+    ['br', 'deflate', 'gzip']
+    """
+    found = set()
+    for part in header.split(","):
+        name, _, params = part.strip().partition(";")
+        q = params.strip()
+        try:
+            weight = float(q[2:]) if q.startswith("q=") else 1.0
+        except ValueError:
+            weight = 1.0
+        if name.strip() and weight > 0:
+            found.add(name.strip().lower())
+    return found
+
+
 class Handler(http.server.SimpleHTTPRequestHandler):
     extensions_map = {**http.server.SimpleHTTPRequestHandler.extensions_map, **TYPES}
     quiet = True
+
+    def send_response(self, code, message=None):
+        self._sent = Sent(self.path, code)
+        super().send_response(code, message)
+
+    def send_header(self, keyword, value):
+        if hasattr(self, "_sent"):
+            if keyword.lower() == "content-length":
+                self._sent.bytes = int(value)
+            elif keyword.lower() == "content-encoding":
+                self._sent.encoding = value
+        super().send_header(keyword, value)
 
     def end_headers(self):
         self.send_header("Content-Security-Policy", CSP)
         self.send_header("X-Content-Type-Options", "nosniff")
         self.send_header("Cache-Control", "no-cache")
         super().end_headers()
+        if getattr(self.server, "sent", None) is not None and hasattr(self, "_sent"):
+            if self._sent.status == 304:
+                self._sent.bytes = 0
+            self.server.sent.append(self._sent)
+
+    def _twin(self, path: Path) -> tuple[str, Path] | None:
+        """The encoding and twin to send for `path`, if the client accepts one that is current."""
+        if not path.is_file():
+            return None
+        wanted = accepted(self.headers.get("Accept-Encoding", ""))
+        for encoding, suffix in ENCODINGS:
+            twin = path.with_name(path.name + suffix)
+            # A twin older than its file is stale (the file was edited after the build): skip it.
+            if encoding in wanted and twin.is_file() and twin.stat().st_mtime >= path.stat().st_mtime:
+                return encoding, twin
+        return None
 
     def send_head(self):
         path = Path(self.translate_path(self.path))
-        gz = path.with_name(path.name + ".gz")
-        # A twin older than its file is stale (the file was edited after the build): skip it.
-        if (path.is_file() and gz.is_file() and gz.stat().st_mtime >= path.stat().st_mtime
-                and "gzip" in self.headers.get("Accept-Encoding", "")):
-            modified = self.date_time_string(int(gz.stat().st_mtime))
-            if self.headers.get("If-Modified-Since") == modified:
-                self.send_response(304)  # what the client holds is current
-                self.send_header("Vary", "Accept-Encoding")
-                self.end_headers()
-                return None
-            handle = open(gz, "rb")
-            self.send_response(200)
-            self.send_header("Last-Modified", modified)
-            self.send_header("Content-Type", self.guess_type(str(path)))
-            self.send_header("Content-Encoding", "gzip")
-            self.send_header("Content-Length", str(gz.stat().st_size))
+        if path.is_dir() and self.path.split("?", 1)[0].endswith("/"):
+            path = path / "index.html"  # the folder's page, twins and all
+        chosen = self._twin(path)
+        if chosen is None:
+            return super().send_head()
+        encoding, twin = chosen
+        modified = self.date_time_string(int(twin.stat().st_mtime))
+        if self.headers.get("If-Modified-Since") == modified:
+            self.send_response(304)  # what the client holds is current
             self.send_header("Vary", "Accept-Encoding")
             self.end_headers()
-            return handle
-        return super().send_head()
+            return None
+        handle = open(twin, "rb")
+        self.send_response(200)
+        self.send_header("Last-Modified", modified)
+        self.send_header("Content-Type", self.guess_type(str(path)))
+        self.send_header("Content-Encoding", encoding)
+        self.send_header("Content-Length", str(twin.stat().st_size))
+        self.send_header("Vary", "Accept-Encoding")
+        self.end_headers()
+        return handle
 
     def log_message(self, format, *args):  # noqa: A002 - the base class's name
         if not self.quiet:
             super().log_message(format, *args)
 
 
-def make_server(root: Path, port: int = 0, quiet: bool = True) -> http.server.ThreadingHTTPServer:
+def make_server(root: Path, port: int = 0, quiet: bool = True,
+                record: bool = False) -> http.server.ThreadingHTTPServer:
     handler = functools.partial(type("QuietHandler", (Handler,), {"quiet": quiet}),
                                 directory=str(root))
     server = http.server.ThreadingHTTPServer(("127.0.0.1", port), handler)
     server.daemon_threads = True
+    server.sent = [] if record else None
     return server
 
 
-def start_in_thread(root: Path, port: int = 0) -> tuple[http.server.ThreadingHTTPServer, str]:
+def start_in_thread(root: Path, port: int = 0,
+                    record: bool = False) -> tuple[http.server.ThreadingHTTPServer, str]:
     """A running server and its base URL; call ``server.shutdown()`` when done."""
-    server = make_server(root, port)
+    server = make_server(root, port, record=record)
     threading.Thread(target=server.serve_forever, daemon=True).start()
     return server, f"http://127.0.0.1:{server.server_address[1]}/"
 

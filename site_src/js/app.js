@@ -43,11 +43,7 @@ async function showView(view, param) {
 async function ready() {
   // The earlier build's log becomes machines and readings once, before anything is shown.
   try {
-    const moved = await migrateOldLog();
-    if (moved) {
-      document.querySelector("[data-log-status]").textContent = `The ${moved.readings.length} saved results of the `
-        + `earlier version are here, each under its machine (${moved.machines.length} named); the earlier log is kept too.`;
-    }
+    await migrateOldLog(); // the log page says so from then on
   } catch (err) {
     console.warn("the earlier log was not moved:", err);
   }

@@ -1,7 +1,7 @@
 // The log: every saved reading, newest first, a page at a time, as calc shows it now in the
 // units chosen; the bug reports below. Saving a form's answer as a reading is here too.
 import { allMachines, ask, deleteReading, digests, keepReading, localStamp, onKitChange } from "./kit.js";
-import { newestReadings } from "./db.js";
+import { getOne, newestReadings } from "./db.js";
 import { currentMachine } from "./machine-pick.js";
 import { readingCard } from "./reading-view.js";
 import { showBugReports } from "./bug-reports.js";
@@ -50,6 +50,12 @@ export async function renderLog() {
   const list = document.querySelector("[data-log-list]");
   const more = document.querySelector('[data-log="more"]');
   const records = (await newestReadings(0, shownCount + 1)).map(({ at, ...r }) => r);
+  const moved = await getOne("meta", "log-migrated");
+  if (moved && moved.readings) {
+    document.querySelector("[data-log-status]").textContent = `The ${moved.readings} results saved by the `
+      + `earlier version moved in on ${new Date(moved.at).toLocaleDateString()}, each under its machine; `
+      + "the earlier log is kept on this device too.";
+  }
   const names = new Map((await allMachines()).map((m) => [m.id, m.card.name]));
   if (turn !== drawing) return;
   more.hidden = records.length <= shownCount;

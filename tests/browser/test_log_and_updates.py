@@ -1,14 +1,13 @@
-"""The log survives reloads and a new build; a new build is offered, then taken whole."""
+"""The log survives reloads and draws trends; a new build keeps it (test_updates.py)."""
 
 from __future__ import annotations
 
 import json
-import re
 from xml.etree import ElementTree
 
 from calc.machines import card, condition
 
-from .conftest import BOOT_TIMEOUT_MS, add_machine, choose_machine, copy_dist, open_app, wait_answer
+from .conftest import add_machine, choose_machine, open_app, wait_answer
 
 
 READINGS_OF = """async (id) => (await import(new URL("js/kit.js", document.baseURI).href)).readingsOf(id)"""
@@ -93,36 +92,4 @@ def test_two_saved_readings_draw_a_trend_on_the_machine_page(page, base_url, wat
     assert svg.locator(".trend-point").count() == 2
     # Every word and number of the chart as calc drew it (ticks, dates, title, description).
     assert svg.evaluate("el => el.textContent") == _svg_text(expected[0]["svg"])
-    assert not watch.errors
-
-
-def test_new_build_is_offered_then_taken_whole_and_the_log_is_kept(page, dist, serve_dir, tmp_path, watch):
-    site = copy_dist(dist, tmp_path)
-    base = serve_dir(site)
-    open_app(page, base, "#/tool/viscosity-at-temperature")
-    page.wait_for_function("() => navigator.serviceWorker.controller !== null", timeout=BOOT_TIMEOUT_MS)
-    old_build = page.get_attribute("html", "data-build")
-    _save_one(page)
-
-    # A new build arrives: a changed page and a service worker with a new id and cache.
-    new_build = "feedfacecafe"
-    page_file = site / "index.html"
-    page_file.write_text(page_file.read_text(encoding="utf-8").replace(old_build, new_build), encoding="utf-8")
-    sw = site / "sw.js"
-    sw.write_text(re.sub(r'const BUILD = "[^"]+"', f'const BUILD = "{new_build}"', sw.read_text(encoding="utf-8")),
-                  encoding="utf-8")
-
-    page.evaluate("async () => (await navigator.serviceWorker.getRegistration()).update()")
-    page.locator("#update-banner").wait_for(state="visible", timeout=BOOT_TIMEOUT_MS)
-    # Until the user says so, the old build keeps serving.
-    assert page.get_attribute("html", "data-build") == old_build
-    with page.expect_navigation(timeout=BOOT_TIMEOUT_MS):
-        page.click("#update-apply")
-    page.wait_for_selector("html[data-ready]", timeout=BOOT_TIMEOUT_MS)
-    assert page.get_attribute("html", "data-build") == new_build
-    caches = page.evaluate("() => caches.keys()")
-    assert caches == [f"sumpside-{new_build}"]
-    open_app(page, base, "#/log")
-    page.locator("[data-log-list] article").first.wait_for()
-    assert "Press 7, north bay" in page.inner_text("[data-log-list]")  # the reading is kept
     assert not watch.errors

@@ -3,7 +3,6 @@ when the snapshot is missing, corrupt, from another build or too big to restore.
 
 from __future__ import annotations
 
-import gzip
 import hashlib
 import json
 
@@ -44,18 +43,28 @@ def test_the_built_snapshot_belongs_to_this_build(dist):
     stored = (dist / "pyodide" / meta["file"]).read_bytes()
     assert meta["wheel_sha256"] == lock["packages"]["sumpside"]["sha256"]
     assert (len(stored), hashlib.sha256(stored).hexdigest()) == (meta["stored_bytes"], meta["sha256"])
-    full = snapshot.unsparse(stored)
-    assert len(full) == meta["bytes"] and full[:4] != stored[:4]  # the stored form is the sparse one
+    base = snapshot.stored_base(dist / "pyodide")
+    full = snapshot.unsparse(stored, base)
+    assert len(full) == meta["bytes"] and full[:4] != stored[:4]  # the stored form is the difference
+    # ... from the wasm's static data, which sits in the snapshot's memory behind the header.
+    offset = int.from_bytes(full[4:8], "little")
+    assert full[offset:offset + 1024] == base[:1024] and len(stored) < len(snapshot.sparse(full))
     assert snapshot.heap_bytes(full) == meta["heap_bytes"]
     # Pyodide 314.0.x restores into its 30 MiB heap without growing it (see sitebuild/snapshot.py).
     assert meta["heap_bytes"] <= 30 * 1024 * 1024
+    # The heap's budget, reported by the build: malloc's bytes in use within what it claimed.
+    heap = meta["heap"]
+    assert 0 < heap["in_use"] <= heap["claimed"] <= heap["budget"] < meta["heap_bytes"]
+    assert heap["share"] == round(heap["in_use"] / heap["budget"], 4)
     # The snapshot maker's self-check: every tool answered on its defaults, in both unit
     # systems, exactly as calc answers here (the worker compares a restored interpreter's).
     assert meta["self_check"] == json.loads(bridge.self_check())
     assert meta["self_check"]["ok"] and meta["self_check"]["tools"] == len(registry.tools())
+    # ... and the sample the worker runs again after a restore.
+    assert meta["quick_check"] == json.loads(bridge.self_check(sample=True))
     sw = (dist / "sw.js").read_text()
     assert '"pyodide/snapshot.bin"' in sw and '"pyodide/snapshot.json"' in sw
-    assert ".gz" not in sw  # twins are a wire encoding, never cached twice
+    assert ".gz" not in sw and ".br" not in sw  # twins are a wire encoding, never cached twice
 
 
 def test_boots_from_the_snapshot_by_default(page, base_url, watch):
@@ -73,8 +82,9 @@ def _break(folder, how: str) -> None:
     meta = json.loads(meta_path.read_text())
     snap = pyo / meta["file"]
     if how == "missing":
-        for name in ("snapshot.json", "snapshot.json.gz", "snapshot.bin", "snapshot.bin.gz"):
-            (pyo / name).unlink(missing_ok=True)
+        for name in ("snapshot.json", "snapshot.bin"):
+            for path in pyo.glob(name + "*"):
+                path.unlink()
         return
     if how == "corrupt":
         data = bytearray(snap.read_bytes())
@@ -86,19 +96,19 @@ def _break(folder, how: str) -> None:
         meta["wheel_sha256"] = "0" * 64
     elif how == "other-answers":
         # What a snapshot of other calc code would show: every tool passes, with other answers.
-        meta["self_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
+        meta["quick_check"]["digest"] = hashlib.sha256(b"other calc code").hexdigest()
     elif how == "too-big":
         # A heap past the 30 MiB a 314.0.x restore holds ("offset is out of bounds" otherwise).
-        full = snapshot.unsparse(snap.read_bytes()) + bytes(1024 * 1024)
-        data = snapshot.sparse(full)
+        base = snapshot.stored_base(pyo)
+        full = snapshot.unsparse(snap.read_bytes(), base) + bytes(1024 * 1024)
+        data = snapshot.sparse(full, base, int.from_bytes(full[4:8], "little"))
         snap.write_bytes(data)
         meta.update(bytes=len(full), stored_bytes=len(data), sha256=hashlib.sha256(data).hexdigest())
     meta_path.write_text(json.dumps(meta))
-    # The server prefers the .gz twins: keep them in step with the files changed above.
+    # The server prefers the twins: drop them, so it serves the files changed above.
     for path in (snap, meta_path):
-        twin = path.with_name(path.name + ".gz")
-        if twin.exists():
-            twin.write_bytes(gzip.compress(path.read_bytes(), 1))
+        for twin in pyo.glob(path.name + ".*"):
+            twin.unlink()
 
 
 @pytest.mark.parametrize("how, says", [

@@ -7,13 +7,13 @@ in the built page and in the memory snapshot, without any list being edited.
 from __future__ import annotations
 
 import json
-import os
-import shutil
 import subprocess
 import sys
 from pathlib import Path
 
 import pytest
+
+from sitebuild import variant
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -37,13 +37,7 @@ def doubled(length: float) -> Result:
 @pytest.fixture(scope="module")
 def project_copy(tmp_path_factory) -> Path:
     """The project's sources with one more tool module and its help page."""
-    copy = tmp_path_factory.mktemp("project")
-    for name in ("calc", "site_src", "sitebuild"):
-        shutil.copytree(ROOT / name, copy / name,
-                        ignore=shutil.ignore_patterns("__pycache__", "*.pyc"))
-    for name in ("build.py", "pyproject.toml"):
-        shutil.copy2(ROOT / name, copy / name)
-    os.symlink(ROOT / "node_modules", copy / "node_modules")
+    copy = variant.copy_sources(tmp_path_factory.mktemp("project"))
     (copy / "calc" / "tools" / "zz_doubled.py").write_text(THROWAWAY, encoding="utf-8")
     (copy / "site_src" / "help" / "zz-doubled.md").write_text("Doubles a length.\n",
                                                             encoding="utf-8")
@@ -51,7 +45,7 @@ def project_copy(tmp_path_factory) -> Path:
 
 
 def _run(copy: Path, *args: str) -> subprocess.CompletedProcess:
-    """Python in the copy: `-m calc` and `build.py` both put the copy first on sys.path."""
+    """Python in the copy: `-m calc` puts the copy first on sys.path."""
     return subprocess.run([sys.executable, *args], cwd=copy, capture_output=True, text=True,
                           timeout=600)
 
@@ -68,9 +62,7 @@ def test_cli_lists_the_new_tool(project_copy):
 def test_page_and_snapshot_carry_the_new_tool(project_copy):
     if not (ROOT / "node_modules" / "pyodide").is_dir():
         pytest.fail("node_modules/pyodide is missing: `make test` runs npm ci first")
-    dist = project_copy / "dist"
-    run = _run(project_copy, "build.py", "--dist", str(dist))
-    assert run.returncode == 0, run.stdout + run.stderr
+    dist = variant.build(project_copy, project_copy / "dist")
     page = (dist / "index.html").read_text(encoding="utf-8")
     assert 'data-tool="zz-doubled"' in page and "Zz doubled length" in page
     catalogue = json.loads(_run(project_copy, "-m", "calc", "tools", "--json").stdout)
