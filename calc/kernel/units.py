@@ -41,7 +41,12 @@ class Quantity:
     """A physical quantity: its metric unit, its US unit and the conversions.
 
     ``to_us`` maps a metric value to the US unit, ``to_metric`` the reverse.
-    ``digits`` is how many significant figures are worth showing.
+
+    How people read it (the one place rounding is declared; page, print and CLI text all
+    show through `show`, the JSON keeps full precision): ``digits`` significant figures,
+    trailing zeros dropped ("0.8 bar", not "0.8000 bar"); or ``decimals`` fixed decimals
+    (a temperature to 0.1 degree, a count or a VI as a whole number); or ``style`` "duration"
+    for a time in hours or minutes ("1 h 50 min").
     """
 
     name: str
@@ -51,18 +56,19 @@ class Quantity:
     to_metric: Callable[[float], float] = _identity
     digits: int = 3
     decimals: int | None = None  # fixed decimals instead of significant figures
+    style: str = "number"  # or "duration": minutes and hours as "1 h 50 min"
 
     def unit(self, system: str) -> str:
         return self.us if system == "us" else self.metric
 
 
 def _quantity(name: str, metric: str, us: str | None = None, factor: float | None = None,
-              digits: int = 3, decimals: int | None = None) -> Quantity:
+              digits: int = 3, decimals: int | None = None, style: str = "number") -> Quantity:
     """A quantity whose US unit is `factor` metric units (1 US unit = factor metric)."""
     if factor is None:
-        return Quantity(name, metric, us or metric, digits=digits, decimals=decimals)
+        return Quantity(name, metric, us or metric, digits=digits, decimals=decimals, style=style)
     to_us, to_metric = _scale(factor)
-    return Quantity(name, metric, us or metric, to_us, to_metric, digits, decimals)
+    return Quantity(name, metric, us or metric, to_us, to_metric, digits, decimals, style)
 
 
 _FT2_IN_M2 = FOOT_IN_M ** 2
@@ -96,11 +102,11 @@ QUANTITIES: dict[str, Quantity] = {q.name: q for q in (
     _quantity("fraction", ""),
     _quantity("ratio", ""),
     _quantity("count", "", decimals=0),
-    _quantity("per_ml", "/mL", digits=4),  # particles per mL (ISO 4406); no US unit
+    _quantity("per_ml", "/mL"),  # particles per mL (ISO 4406); no US unit
     _quantity("acid_number", "mg KOH/g"),  # ASTM D664 / D974; no US unit
     _quantity("molar_energy", "kJ/mol"),  # activation energy; shown in SI everywhere
-    _quantity("minutes", "min"),
-    _quantity("hours", "h", digits=4),
+    _quantity("minutes", "min", style="duration"),
+    _quantity("hours", "h", style="duration"),
     _quantity("days", "d", decimals=0),
     _quantity("seconds", "s"),
     _quantity("per_bar", "1/bar", "1/psi", 1.0 / PSI_IN_BAR),
@@ -190,8 +196,11 @@ def show(value: float | None, quantity_name: str, system: str) -> str:
         return "n/a"
     if quantity_name == "text":
         return str(value)
+    q = quantity(quantity_name)
+    if q.style == "duration" and math.isfinite(value):
+        return duration(value * 60.0 if quantity_name == "hours" else value)
     text = show_number(value, quantity_name, system)
-    unit = quantity(quantity_name).unit(system)
+    unit = q.unit(system)
     if not unit:
         return text
     if unit == "%":
@@ -207,10 +216,36 @@ def show_number(value: float, quantity_name: str, system: str) -> str:
     """
     q = quantity(quantity_name)
     shown = from_metric(value, quantity_name, system)
-    text = f"{shown:.{q.decimals}f}" if q.decimals is not None else format_number(shown, q.digits)
+    text = (f"{shown:.{q.decimals}f}" if q.decimals is not None
+            else _trimmed(format_number(shown, q.digits)))
     if text.startswith("-") and not text.strip("-0."):
         text = text[1:]  # no "-0.0"
     return text
+
+
+def _trimmed(text: str) -> str:
+    return text.rstrip("0").rstrip(".") if "." in text and "e" not in text else text
+
+
+def duration(minutes: float) -> str:
+    """A time as people say it: "45 min", "1 h 50 min", "2 d 3 h"; "4.96 min" below an hour
+    keeps three figures (a dwell time); past 1000 h, whole hours.
+
+    >>> duration(110.0), duration(4.96), duration(55.2), duration(60.0), duration(3000.0)
+    ('1 h 50 min', '4.96 min', '55.2 min', '1 h', '2 d 2 h')
+    >>> duration(90000.0)
+    '1500 h'
+    """
+    if abs(minutes) < 60.0:
+        return f"{_trimmed(format_number(minutes, 3))} min"
+    sign = "-" if minutes < 0 else ""
+    if not math.isfinite(minutes) or abs(minutes) >= 60000.0:
+        return f"{_trimmed(format_number(minutes / 60.0, 3))} h"
+    hours, mins = divmod(round(abs(minutes)), 60)
+    if hours >= 48:
+        days, hours = divmod(round(abs(minutes) / 60.0), 24)
+        return f"{sign}{days} d" + (f" {hours} h" if hours else "")
+    return f"{sign}{hours} h" + (f" {mins} min" if mins else "")
 
 
 def format_number(value: float, digits: int = 3) -> str:

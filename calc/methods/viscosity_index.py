@@ -233,7 +233,7 @@ def check_kv40_kv100(kv40_cst: float, kv100_cst: float) -> None:
 
     >>> check_kv40_kv100(46.0, 1.9)
     Traceback (most recent call last):
-    calc.kernel.errors.InputError: kv100: ASTM D2270 defines VI only for KV100 of 2.00 cSt and above
+    calc.kernel.errors.InputError: kv100: ASTM D2270 defines VI only for KV100 of 2 cSt and above
     """
     if kv100_cst < KV100_MIN_CST:
         raise InputError("kv100", "ASTM D2270 defines VI only for KV100 of {least} and above",

@@ -12,12 +12,13 @@ export const ask = (op, request) => calculator.machines(op, request);
 export const onKitChange = (fn) => listeners.add(fn);
 const changed = () => { for (const fn of listeners) fn(); };
 
-// The local time with its offset from UTC, as calc keeps times: 2026-03-04T09:15:00+01:00.
+// The local time with its offset from UTC, as calc keeps times: 2026-03-04T09:15:00.250+01:00
+// (milliseconds, so two readings saved in the same second still keep their order).
 export function localStamp(date = new Date()) {
   const pad = (n) => String(Math.floor(Math.abs(n))).padStart(2, "0");
   const offset = -date.getTimezoneOffset();
   return `${date.getFullYear()}-${pad(date.getMonth() + 1)}-${pad(date.getDate())}T`
-    + `${pad(date.getHours())}:${pad(date.getMinutes())}:${pad(date.getSeconds())}`
+    + `${pad(date.getHours())}:${pad(date.getMinutes())}:${pad(date.getSeconds())}.${String(date.getMilliseconds()).padStart(3, "0")}`
     + `${offset >= 0 ? "+" : "-"}${pad(offset / 60)}:${pad(offset % 60)}`;
 }
 export const today = () => localStamp().slice(0, 10);

@@ -101,7 +101,7 @@ def test_us_units_keep_foam_in_ml():
     answer = bridge.run("foam-air-tests", {"seq1_tendency": 200, "seq1_stability": 20}, "us")
     assert answer["units"]["tendency_limit_24"] == "mL"
     assert answer["values"]["tendency_limit_24"] == 150.0
-    assert "20.0 mL of foam still standing" in answer["verdicts"][0]["message"]
+    assert "20 mL of foam still standing" in answer["verdicts"][0]["message"]
 
 
 

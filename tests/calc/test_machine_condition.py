@@ -119,7 +119,7 @@ def test_trend_is_drawn_against_its_limits_on_a_dated_axis():
     classes = [c for el in root.iter() for c in el.get("class", "").split()]
     assert "limit-watch" in classes and "limit-act" in classes and "trend-line" in classes
     texts = " ".join(el.text or "" for el in root.iter(SVG + "text"))
-    assert "2026-01-01" in texts and "watch 200.0 ppm" in texts and "act 500.0 ppm" in texts
+    assert "2026-01-01" in texts and "watch 200 ppm" in texts and "act 500 ppm" in texts
     assert drawn["points"] == 3
     # One point is no trend.
     assert condition.trends({}, readings[:1], "metric") == []

@@ -49,7 +49,7 @@ def test_the_visit_report_holds_the_days_readings(demo):
     # The card's facts are counted, not repeated: they head the report.
     assert water["from_card"] >= 3
     entered = {i["label"]: i["text"] for i in water["inputs"]}
-    assert entered["Lab water content"] == "650.0 ppm"
+    assert entered["Lab water content"] == "650 ppm"
     assert entered["Oil temperature at the reading"] == "95.0 °F"  # 35 degC, in the reader's units
     # What it found: the headline and followed values, under their screen labels.
     tool = registry.get("water-in-oil")
