@@ -36,6 +36,10 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--svg", metavar="FILE", help="write the tool's chart, if it draws one")
     run.add_argument("--machine", metavar="CARD.json",
                      help="a machine card whose facts fill the inputs not given")
+    run.add_argument("--example", action="store_true",
+                     help="fill each reading and machine fact not given with the tool's "
+                          "example value (each one is named in the output); without it, a "
+                          "reading not given is an error")
     return parser
 
 
@@ -83,6 +87,8 @@ def _print_answer(answer: dict, tool_outputs: dict) -> None:
         print(f"{LEVEL_MARK[v['level']]} {v['message']}  ({v['basis']})")
     for note in answer["notes"]:
         print(f"note: {note}")
+    for notice in answer.get("notices", []):
+        print(f"check: {notice['message']}")
     if answer.get("from_card"):
         print("from the machine card: " + ", ".join(answer["from_card"]))
     if answer["sources"]:
@@ -114,9 +120,9 @@ def main(argv: list[str] | None = None) -> int:
     if bad:
         answer = {"tool": args.tool, "ok": False, "errors": bad}
     elif machine is not None:
-        answer = bridge.run_for_machine(args.tool, inputs, args.units, machine)
+        answer = bridge.run_for_machine(args.tool, inputs, args.units, machine, args.example)
     else:
-        answer = bridge.run(args.tool, inputs, args.units)
+        answer = bridge.run(args.tool, inputs, args.units, args.example)
     if args.json:
         print(json.dumps(answer, indent=2, ensure_ascii=False))
     elif answer["ok"]:
@@ -127,6 +133,9 @@ def main(argv: list[str] | None = None) -> int:
         for err in answer["errors"]:
             where = f"{err['field']}: " if err["field"] else ""
             print(f"error: {where}{err['message']}", file=sys.stderr)
+        if any(err["message"].endswith(" is needed") for err in answer["errors"]):
+            print("(give each as key=value, or add --example to use the tool's examples)",
+                  file=sys.stderr)
     if answer.get("bug") and not args.json:
         print("bug report (please pass it on):\n" + answer["bug"]["traceback"], file=sys.stderr)
     if not answer["ok"]:

@@ -6,11 +6,14 @@ The answer is ``{"tool", "ok": true, "values", "units", "text", "headline", "ver
 [{"field", "message"}]}``. A fault inside a tool is an answer too: ``"ok": false`` with one
 error whose field is None, and a ``"bug"`` member with the traceback for the bug report.
 
->>> answer = run("viscosity-at-temperature", {"kv40": "46", "kv100": "6,8", "temp": 60})
+>>> answer = run("viscosity-at-temperature", {"kv40": "46", "kv100": "6,8", "temp": 60},
+...              examples=True)
 >>> answer["ok"], answer["text"]["kv"], answer["headline"]
 (True, '20.6 cSt', ['kv'])
->>> run("viscosity-at-temperature", {"kv40": "10", "kv100": "20"})["errors"][0]["field"]
+>>> run("viscosity-at-temperature", {"kv40": "10", "kv100": "20"}, examples=True)["errors"][0]["field"]
 'kv100'
+>>> run("viscosity-at-temperature", {"kv40": "46", "kv100": "6.8", "temp1": 40, "temp2": 100})
+{'tool': 'viscosity-at-temperature', 'ok': False, 'errors': [{'field': 'temp', 'message': 'Oil temperature now is needed'}]}
 """
 
 from __future__ import annotations
@@ -50,11 +53,15 @@ def _shower(system: str):
     return lambda value, quantity: units.show(value, quantity, system)
 
 
-def run(tool_id: str, inputs: dict | None = None, system: str = "metric") -> dict:
-    """Run one tool on typed inputs; never raises, whatever the inputs."""
+def run(tool_id: str, inputs: dict | None = None, system: str = "metric",
+        examples: bool = False) -> dict:
+    """Run one tool on typed inputs; never raises, whatever the inputs.
+
+    A blank reading is not given (an error beside its field); ``examples`` fills blank
+    readings and machine facts with the declared examples (calc.kernel.registry)."""
     try:
         found = registry.get(tool_id)
-        result = found.run(dict(inputs or {}), units.check_system(system))
+        result = found.run(dict(inputs or {}), units.check_system(system), examples=examples)
         return present(found, result, units.check_system(system))
     except InputError as err:
         return {"tool": tool_id, "ok": False, "errors": err.as_list(_shower(system))}
@@ -111,15 +118,16 @@ def run_json(request: str) -> str:
                            "errors": [{"field": "request", "message": str(err)}]})
     inputs = message.get("inputs")
     answer = run(str(message.get("tool")), inputs if isinstance(inputs, dict) else {},
-                 str(message.get("units") or "metric"))
+                 str(message.get("units") or "metric"), message.get("examples") is True)
     return json.dumps(answer, ensure_ascii=False)
 
 
-def run_for_machine(tool_id: str, inputs: dict, system: str, machine: dict) -> dict:
+def run_for_machine(tool_id: str, inputs: dict, system: str, machine: dict,
+                    examples: bool = False) -> dict:
     """`run` with a machine record's card filling the bound inputs not given; the answer
     adds ``"from_card"`` (the keys it filled) and ``"inputs"`` (all, metric)."""
     return _machine_call({"op": "run", "tool": tool_id, "inputs": inputs, "units": system,
-                          "machine": machine})
+                          "machine": machine, "examples": examples})
 
 
 def check_card(card: object, system: str) -> dict:
@@ -153,7 +161,7 @@ def machines_json(request: str) -> str:
 
 
 def self_check(sample: bool = False) -> str:
-    """Every tool run once on its defaults in both unit systems, as one JSON line.
+    """Every tool run once on its examples in both unit systems, as one JSON line.
 
     ``{"ok", "tools", "failed", "digest"}``: the digest is the sha256 of all the answers,
     so an interpreter restored from a memory snapshot can be compared with the one that
@@ -179,7 +187,8 @@ def self_check(sample: bool = False) -> str:
         found = {tool_id: found[tool_id] for tool_id in firsts.values()}
     for tool_id in found:
         for system in units.SYSTEMS:
-            answer = run_json(json.dumps({"tool": tool_id, "inputs": {}, "units": system}))
+            answer = run_json(json.dumps({"tool": tool_id, "inputs": {}, "units": system,
+                                          "examples": True}))
             digest.update(answer.encode())
             if not json.loads(answer)["ok"]:
                 failed.append(f"{tool_id}/{system}")

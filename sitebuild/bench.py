@@ -162,7 +162,7 @@ def timed_tool() -> dict:
         value = default + step * scale
         if (field.min is not None and value < field.min) or (field.max is not None and value > field.max):
             continue
-        answer = bridge.run(tool.id, {field.key: f"{value:g}"})
+        answer = bridge.run(tool.id, {field.key: f"{value:g}"}, examples=True)
         if answer["ok"] and answer["text"].get(out) != last:
             values.append(f"{value:g}")
             last = answer["text"][out]

@@ -12,7 +12,7 @@ from ..kernel.grading import Band
 from ..kernel.registry import Field, Output
 from ..kernel.result import COMMON_PRACTICE, Q, Result
 from ..methods.cleanliness import TOP_SCALE, format_code, worst_excess
-from ..tools.cleanliness import COMPONENT_CHOICES, code_from_fields, target_code
+from ..tools.cleanliness import USUAL_SCALE, COMPONENT_CHOICES, code_from_fields, target_code
 from .scoreboard import MODERATE, STRONG, WEAK, Cause, Check, Scoreboard, Symptom, checklist
 
 CAUSES = (
@@ -110,7 +110,7 @@ CODE_BASIS = COMMON_PRACTICE + ", target codes from memory (as in the iso-4406 t
 
 
 def _code_field(key: str, label: str) -> Field:
-    return Field(key, label, "count", None, min=0.0, max=float(TOP_SCALE),
+    return Field(key, label, "count", None, min=0.0, max=float(TOP_SCALE), usual=USUAL_SCALE,
                  optional=True, help="One number of the code, e.g. 18 in 18/16/13; blank if "
                                      "the lab gives none for this size.")
 

@@ -130,7 +130,7 @@ INLET_BANDS = (
         Field("pump_min_inlet", "Pump's minimum inlet pressure, absolute", "absolute_pressure", None,
               binds="pump_min_inlet",
               min=0.1, max=5.0, optional=True, group="machine",
-              help="From the pump's data sheet; blank uses 0.8 bar (common practice)."),
+              help="From the pump's data sheet; blank uses 0.8 bar (common practice).", usual=(0.4, 1.0)),
         Field("suction_velocity", "Oil speed in the suction line", "velocity", None, min=0.0,
               max=50.0, optional=True, help="From the line-velocity tool."),
     ),

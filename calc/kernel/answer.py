@@ -37,6 +37,7 @@ def present(found: Tool, result: Result, system: str) -> dict:
         "verdicts": [{"level": v.level, "message": v.message.render(show), "basis": v.basis}
                      for v in result.verdicts],
         "notes": [n.render(show) for n in result.notes],
+        "notices": [{"field": key, "message": n.render(show)} for key, n in result.notices],
         "sources": list(result.sources),
         "charts": {name: draw(system) for name, draw in result.charts.items()},
         "ranked": [{"key": c.key, "title": c.title, "score": c.score,

@@ -41,6 +41,47 @@ KINDS = ("tool", "checklist")
 # machine's own facts, and the limits and options that change how the reading is judged.
 GROUPS = ("reading", "machine", "limits")
 
+# What a blank field means, one rule for the page, the bridge and the CLI:
+# - a reading or a machine fact left blank is not given: an error beside the field (unless
+#   the field is optional). Its declared default is only an example, used when the caller
+#   asks for examples on purpose (the form's "Fill an example", `--example` in the CLI,
+#   the self-check);
+# - a limit or option left blank takes its standard value, which the form shows in the
+#   field from the start (a choice or a tick box always has a value).
+#
+# A field used only in some modes declares `when=(mode key, values)`. An input the chosen
+# mode does not use is refused, naming the field and the mode that uses it; when the mode
+# itself was not given and the inputs given all point to one mode, that mode is chosen
+# and a notice says so (the page never sends a hidden field, so it never relies on this).
+
+# The range usual in hydraulic work for each quantity (common practice, metric): a value
+# outside it still computes, with a notice beside the field asking to check the reading.
+# A field whose usual range differs from its quantity's declares its own `usual`.
+USUAL = {
+    "temperature": (-30.0, 100.0),  # cold start outdoors to a hot circuit
+    "temperature_difference": (5.0, 15.0),
+    "kinematic_viscosity": (2.0, 2000.0),
+    "absolute_pressure": (0.5, 3.0),
+    "pressure": (0.0, 420.0),  # working pressures of industrial and mobile hydraulics
+    "acid_number": (0.0, 4.0),
+    "density": (820.0, 1100.0),  # mineral oils to phosphate esters and water glycols
+    "flow": (1.0, 2000.0),
+    "foam_ml": (0.0, 600.0),
+    "hours": (1.0, 100000.0),
+    "minutes": (0.1, 30.0),
+    "molar_energy": (40.0, 150.0),
+    "per_bar": (0.8e-3, 4.0e-3),  # Barus coefficient of mineral and synthetic oils
+    "per_ml": (0.0, 1.0e6),
+    "percent": (0.0, 100.0),
+    "power": (0.1, 500.0),
+    "ppm": (0.0, 10000.0),
+    "velocity": (0.2, 10.0),
+    "vi": (50.0, 300.0),
+    "volume": (1.0, 100000.0),
+    "force": (10.0, 2.0e6),
+    "length_m": (0.0, 10.0),
+}
+
 
 @dataclass(frozen=True)
 class Topic:
@@ -101,6 +142,10 @@ class Field:
         "limits" (limits and options); a field bound to the machine card is a machine fact
     binds : the machine card's field this input takes when a machine is chosen
     tracks : the condition quantity (TRACKED) this input is a reading of, followed over time
+    when : (mode key, values): the field is used only while the choice field `mode key`
+        holds one of `values` (see the blank and mode rules above)
+    usual : (low, high) metric, the range usual in hydraulic work when it is not the
+        quantity's own (USUAL); common practice, a value outside it gets a notice
     """
 
     key: str
@@ -115,10 +160,40 @@ class Field:
     group: str = "reading"
     binds: str | None = None
     tracks: str | None = None
+    when: tuple[str, tuple[str, ...]] | None = None
+    usual: tuple[float, float] | None = None
 
     def __post_init__(self):
         if self.binds is not None and self.group == "reading":
             object.__setattr__(self, "group", "machine")
+        if self.when is not None and isinstance(self.when[1], str):
+            object.__setattr__(self, "when", (self.when[0], (self.when[1],)))
+
+    @property
+    def usual_range(self) -> tuple[float, float] | None:
+        """The range usual in hydraulic work (common practice), metric; None for a field
+        that is not a number."""
+        if not self.is_number:
+            return None
+        return self.usual or USUAL.get(self.quantity)
+
+    def notice(self, value: float) -> InputError | None:
+        """A word beside a value that computes but is outside the usual range, else None."""
+        usual = self.usual_range
+        if usual is None or usual[0] <= value <= usual[1]:
+            return None
+        side = "above" if value > usual[1] else "below"
+        return InputError(self.key, "{value} is {side} the usual range of {label}, {low} to "
+                          "{high} (common practice): check the reading",
+                          value=Q(value, self.quantity), side=Q(side, "text"),
+                          label=Q(self.label, "text"), low=Q(usual[0], self.quantity),
+                          high=Q(usual[1], self.quantity))
+
+    @property
+    def blank_takes_default(self) -> bool:
+        """A blank limit or option takes its standard value; a blank reading or machine
+        fact is not given (its default is only an example)."""
+        return self.group == "limits" or self.is_choice
 
     @property
     def is_choice(self) -> bool:
@@ -157,19 +232,31 @@ class Field:
         if self.is_text:
             return
         units.quantity(self.quantity)
+        if self.usual_range is None:
+            raise ValueError(f"{where}: field {self.key!r} needs a usual range: its quantity "
+                             f"{self.quantity!r} has none in registry.USUAL")
+        low, high = self.usual_range
+        if not low <= high or (self.min is not None and high < self.min) or (
+                self.max is not None and low > self.max):
+            raise ValueError(f"{where}: field {self.key!r} usual range {self.usual_range} "
+                             "does not overlap its limits")
         if self.default is None and not self.optional:
             return
         if self.default is not None:
             self.check_range(float(self.default), "metric")
 
-    def parse(self, raw: object, system: str) -> float | str | None:
-        """The metric value of what was typed, or InputError naming this field."""
+    def parse(self, raw: object, system: str, examples: bool = False) -> float | str | None:
+        """The metric value of what was typed, or InputError naming this field.
+
+        Blank: None when optional; a limit's or option's standard value; the example
+        (the declared default) only with ``examples``; else an error.
+        """
         if self.is_flag:
             return _parse_flag(raw, self.key)
         if _blank(raw):
             if self.optional:
                 return None
-            if self.default is None:
+            if self.default is None or not (examples or self.blank_takes_default):
                 raise InputError(self.key, "{label} is needed", label=Q(self.label, "text"))
             return self.default
         if self.is_choice:
@@ -217,6 +304,9 @@ class Field:
         except InputError:
             return False
 
+    def choice_label(self, value: str) -> str:
+        return dict(self.choices).get(value, value)
+
     def check_range(self, value: float, system: str) -> None:
         if self.quantity == "temperature" and value <= ABSOLUTE_ZERO_C:
             raise InputError(self.key, "is at or below absolute zero ({zero})",
@@ -240,7 +330,9 @@ class Field:
         convert = (lambda v: None if v is None else units.from_metric(v, self.quantity, system)
                    ) if number else (lambda v: v)
         shared = {"key": self.key, "label": self.label, "help": self.help, "group": self.group,
-                  "binds": self.binds, "tracks": self.tracks}
+                  "binds": self.binds, "tracks": self.tracks,
+                  "when": None if self.when is None else {"key": self.when[0],
+                                                          "values": list(self.when[1])}}
         if self.is_flag:
             return {**shared, "quantity": "flag", "unit": "", "default": bool(self.default),
                     "min": None, "max": None, "choices": [], "optional": True}
@@ -253,7 +345,21 @@ class Field:
             "max": convert(self.max) if number else self.max,
             "choices": [list(c) for c in self.choices],
             "optional": self.optional,
+            "usual": None if self.usual_range is None else [convert(v) for v in self.usual_range],
         }
+
+
+def _finite(value: object) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
+
+
+@dataclass(frozen=True)
+class Parsed:
+    """A tool's inputs parsed: metric values, the keys the card filled, the parse's notices."""
+
+    values: dict
+    from_card: list[str]
+    notices: list[InputError]
 
 
 _TRUE = ("1", "true", "yes", "on", "y")
@@ -369,27 +475,84 @@ class Tool:
     def headline(self) -> tuple[str, ...]:
         return tuple(o.key for o in self.outputs if o.headline)
 
-    def parse(self, raw: dict, system: str = "metric", facts: dict | None = None) -> dict:
+    def parse(self, raw: dict, system: str = "metric", facts: dict | None = None,
+              examples: bool = False) -> dict:
         """All inputs in metric units, every bad field reported at once.
 
         `facts` are a machine card's facts (metric, calc.machines.card): a bound input left
         blank takes its card field's value, checked like a typed one; one that does not fit
         this tool is an error naming the input and saying the value came from the card
-        (never a silent fall-back to the tool's default).
+        (never a silent fall-back to the tool's default). Blank fields and modes follow the
+        rules at the top of this module; ``examples`` fills blank readings and facts with
+        the declared examples.
         """
-        return self.parse_from(raw, system, facts)[0]
+        return self.parse_from(raw, system, facts, examples).values
 
-    def parse_from(self, raw: dict, system: str = "metric",
-                   facts: dict | None = None) -> tuple[dict, list[str]]:
-        """(inputs in metric, the keys that came from the card): see `parse`."""
+    def parse_from(self, raw: dict, system: str = "metric", facts: dict | None = None,
+                   examples: bool = False) -> Parsed:
+        """The inputs in metric, the keys that came from the card and the notices of the
+        parse (a mode chosen from the inputs given): see `parse`."""
         raw, errors = self.rename_old_keys(raw)
-        from_card = []
+        facts = facts or {}
+        chosen, from_card, notices = self._choose_modes(raw, system, facts, errors)
         for f in self.inputs:
-            fact = (facts or {}).get(f.binds) if f.binds else None
-            if _blank(raw.get(f.key)) and fact is not None:
+            if (f.key not in chosen and f.binds and facts.get(f.binds) is not None
+                    and _blank(raw.get(f.key)) and self.uses(f, chosen)):
                 from_card.append(f.key)
-        return self._parse(raw, system, {k: facts[self.field(k).binds] for k in from_card},
-                           errors), from_card
+        metric = {k: facts[self.field(k).binds] for k in from_card if k not in chosen}
+        values = self._parse(raw, system, metric, errors, chosen, examples, notices)
+        return Parsed(values, [f.key for f in self.inputs if f.key in from_card], notices)
+
+    def default_modes(self) -> dict:
+        """{mode key: its default choice}: the modes a form starts in."""
+        return {f.when[0]: self.field(f.when[0]).default for f in self.inputs if f.when}
+
+    @staticmethod
+    def uses(f: Field, chosen: dict) -> bool:
+        """Whether field `f` is used by the modes `chosen` ({mode key: value})."""
+        return f.when is None or chosen.get(f.when[0]) in f.when[1]
+
+    def _choose_modes(self, raw: dict, system: str, facts: dict,
+                      errors: list[InputError]) -> tuple[dict, list[str], list[InputError]]:
+        """({mode key: value}, mode keys the card gave, notices): each mode typed, else
+        the card's, else the one mode every input given points to, else its default; an
+        input its mode does not use is an error (the rule at the top of this module)."""
+        chosen, from_card, notices = {}, [], []
+        for mode_key in dict.fromkeys(f.when[0] for f in self.inputs if f.when):
+            mode = self.field(mode_key)
+            fact = facts.get(mode.binds) if mode.binds else None
+            given = True
+            if not _blank(raw.get(mode_key)):
+                try:
+                    chosen[mode_key] = mode.parse(raw[mode_key], system)
+                except InputError as err:
+                    errors.append(err)
+                    chosen[mode_key] = mode.default
+            elif fact is not None and mode.accepts(fact):
+                chosen[mode_key], given = fact, True
+                from_card.append(mode_key)
+            else:
+                chosen[mode_key], given = mode.default, False
+            users = [f for f in self.inputs
+                     if f.when and f.when[0] == mode_key and not _blank(raw.get(f.key))]
+            common = set.intersection(*(set(f.when[1]) for f in users)) if users else set()
+            if not given and chosen[mode_key] not in common and len(common) == 1:
+                chosen[mode_key] = common.pop()
+                notices.append(InputError(mode_key, "{mode} set to “{value}”: the "
+                                          "only choice that uses {keys}",
+                                          mode=Q(mode.label, "text"),
+                                          value=Q(mode.choice_label(chosen[mode_key]), "text"),
+                                          keys=Q(", ".join(f.key for f in users), "text")))
+            for f in users:
+                if chosen[mode_key] not in f.when[1]:
+                    errors.append(InputError(
+                        f.key, "{label} is used only when {mode} is {values}, and it is "
+                        "“{now}”: leave it blank or choose that",
+                        label=Q(f.label, "text"), mode=Q(mode.label, "text"),
+                        values=Q(" or ".join(f"“{mode.choice_label(v)}”"
+                                            for v in f.when[1]), "text"),
+                        now=Q(mode.choice_label(chosen[mode_key]), "text")))
+        return chosen, from_card, notices
 
     def rename_old_keys(self, raw: dict) -> tuple[dict, list[InputError]]:
         """`raw` with renamed keys under their new names; both given is an error."""
@@ -405,7 +568,8 @@ class Tool:
                                          new=Q(new, "text")))
         return raw, errors
 
-    def _parse(self, raw: dict, system: str, metric: dict, errors: list[InputError]) -> dict:
+    def _parse(self, raw: dict, system: str, metric: dict, errors: list[InputError],
+               chosen: dict, examples: bool, notices: list[InputError]) -> dict:
         unknown = sorted(set(raw) - {f.key for f in self.inputs})
         retired = dict(self.retired)
         inputs = Q(", ".join(f.key for f in self.inputs), "text")
@@ -416,6 +580,12 @@ class Tool:
                              tool=Q(self.id, "text"), inputs=inputs) for k in unknown]
         values = {}
         for f in self.inputs:
+            if f.key in chosen:
+                values[f.key] = chosen[f.key]
+                continue
+            if not self.uses(f, chosen):
+                values[f.key] = f.default  # not used in the chosen mode: never read
+                continue
             if f.key in metric:
                 try:
                     values[f.key] = f.parse(metric[f.key], "metric")
@@ -425,20 +595,33 @@ class Tool:
                         "this reading, or correct the card)", err.text.args, err.text.named)))
                 continue
             try:
-                values[f.key] = f.parse(raw.get(f.key), system)
+                values[f.key] = f.parse(raw.get(f.key), system, examples)
             except InputError as err:
                 errors.append(err)
+                continue
+            if (examples and _blank(raw.get(f.key)) and not f.optional and not f.is_flag
+                    and not f.blank_takes_default):
+                shown = Q(values[f.key], f.quantity if f.is_number else "text")
+                notices.append(InputError(f.key, "{label}: the example {value}, not a reading",
+                                          label=Q(f.label, "text"), value=shown))
         if errors:
             raise InputError.combine(errors)
         return values
 
-    def run(self, raw: dict, system: str = "metric", facts: dict | None = None) -> Result:
-        return self.run_parsed(self.parse(raw, units.check_system(system), facts))
+    def run(self, raw: dict, system: str = "metric", facts: dict | None = None,
+            examples: bool = False) -> Result:
+        parsed = self.parse_from(raw, units.check_system(system), facts, examples)
+        return self.run_parsed(parsed.values, parsed.notices)
 
-    def run_parsed(self, values: dict) -> Result:
-        """The answer to inputs already parsed to metric (as `parse` gives them)."""
+    def run_parsed(self, values: dict, notices: list[InputError] = ()) -> Result:
+        """The answer to inputs already parsed to metric (as `parse` gives them), with the
+        notices of the parse and one beside each value outside its usual range."""
         result = self.compute(**values)
         self._check(result)
+        chosen = {f.when[0]: values.get(f.when[0]) for f in self.inputs if f.when}
+        unusual = [f.notice(float(values[f.key])) for f in self.inputs
+                   if f.is_number and self.uses(f, chosen) and _finite(values.get(f.key))]
+        result.notices = [(n.field, n.text) for n in [*notices, *unusual] if n is not None]
         return result
 
     def _check(self, result: Result) -> None:
@@ -463,6 +646,7 @@ class Tool:
             "id": self.id, "title": self.title, "summary": self.summary,
             "topic": self.topic.title, "kind": self.kind,
             "inputs": [f.describe(system) for f in self.inputs],
+            "modes": sorted({f.when[0] for f in self.inputs if f.when}),
             "outputs": [o.describe(system) for o in self.outputs],
         }
 

@@ -94,6 +94,9 @@ class Result:
     # edge can ask for the reader's units; calc itself never picks them.
     charts: dict[str, Callable[[str], str]] = field(default_factory=dict)
     ranked: list[RankedCause] = field(default_factory=list)  # most likely first
+    # (input key, message) of a value that computes but asks for a look: outside the range
+    # usual in hydraulic work, or a mode chosen from the inputs given (registry sets these).
+    notices: list[tuple[str, Text]] = field(default_factory=list)
 
     def note(self, template: str, /, *args: Q, **named: Q) -> None:
         self.notes.append(text(template, *args, **named))

@@ -159,9 +159,9 @@ def run(request: dict) -> dict:
     machine = _machine(request, required=False)
     facts = cards.facts(machine["card"])[0] if machine else None
     raw = request.get("inputs") if isinstance(request.get("inputs"), dict) else {}
-    values, from_card = found.parse_from(raw, system, facts)
-    return {**present(found, found.run_parsed(values), system), "from_card": from_card,
-            "inputs": values}
+    parsed = found.parse_from(raw, system, facts, request.get("examples") is True)
+    return {**present(found, found.run_parsed(parsed.values, parsed.notices), system),
+            "from_card": parsed.from_card, "inputs": parsed.values}
 
 
 def save(request: dict) -> dict:

@@ -131,8 +131,10 @@ def plant(today: date) -> dict:
     for machine, history in zip(machines, (_PRESS, _MILL, _CRANE)):
         machine["demo"] = True
         for days, hour, tool_id, typed in history:
+            # Demo readings give what each visit measured; the rest are the tools' examples.
             record = new_reading(tool_id, typed, "metric", machine,
-                                 _stamp(today - timedelta(days=days), hour))["record"]
+                                 _stamp(today - timedelta(days=days), hour),
+                                 examples=True)["record"]
             record["demo"] = True
             readings.append(record)
     return {"machines": machines, "readings": readings}

@@ -19,7 +19,7 @@ each entry becomes a reading again from its typed inputs where they still parse,
 kept as it was (``"as_saved"``) where they no longer do, so nothing is lost.
 
 >>> saved = new_reading("viscosity-at-temperature", {"temp": "60"}, "metric", None,
-...                     "2026-03-04T09:15:00+01:00")
+...                     "2026-03-04T09:15:00+01:00", examples=True)
 >>> saved["record"]["inputs"]["temp"], saved["record"]["tracked"]
 (60.0, {'oil_temp': 60.0})
 >>> view(saved["record"], "us")["text"]["kv"]
@@ -82,7 +82,7 @@ def _finite(value: object) -> bool:
 
 
 def new_reading(tool_id: str, raw: dict, system: str, machine: dict | None, stamp: str,
-                note: str = "") -> dict:
+                note: str = "", examples: bool = False) -> dict:
     """Run a tool for a machine and make the reading record of its answer.
 
     `machine` is a machine record (its card fills the bound inputs left blank) or None.
@@ -92,12 +92,13 @@ def new_reading(tool_id: str, raw: dict, system: str, machine: dict | None, stam
     found = registry.get(tool_id)
     system = units.check_system(system)
     facts = cards.facts(machine["card"])[0] if machine else None
-    values, from_card = found.parse_from(dict(raw or {}), system, facts)
+    parsed = found.parse_from(dict(raw or {}), system, facts, examples)
+    values, from_card = parsed.values, parsed.from_card
     note = "" if note is None else str(note).strip()
     if len(note) > NOTE_MAX_CHARS:
         raise InputError("note", "is {n} characters long; at most {most}",
                          n=Q(float(len(note)), "count"), most=Q(float(NOTE_MAX_CHARS), "count"))
-    result = found.run_parsed(values)
+    result = found.run_parsed(values, parsed.notices)
     record = {"format": READING, "version": VERSION, "id": new_id(),
               "machine": machine["id"] if machine else None, "tool": found.id,
               "inputs": values, "from_card": from_card, "calc": __version__,
@@ -235,7 +236,8 @@ def _migrated(entry: dict, machine: dict | None) -> dict:
     inputs = entry.get("inputs") if isinstance(entry.get("inputs"), dict) else {}
     stamp = str(entry["at"]).replace("Z", "+00:00")
     try:
-        made = new_reading(str(entry.get("tool")), inputs, system, None, stamp)
+        # A blank field of the earlier log computed with the tool's default: so it does here.
+        made = new_reading(str(entry.get("tool")), inputs, system, None, stamp, examples=True)
         record = made["record"]
         record["machine"] = machine["id"] if machine else None
         record["migrated"] = True

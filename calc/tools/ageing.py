@@ -114,10 +114,10 @@ def life_chart(ref_life_h: float, ref_temp_c: float, temp_c: float, doubling, ar
         Field("method", "Life model for the profile", "choice", "doubling",
               choices=METHOD_CHOICES),
         Field("step", "Heat that halves the life", "temperature_difference", DOUBLING_STEP_K,
-              min=3.0, max=30.0, help="10 K is the rule of thumb (common practice)."),
+              min=3.0, max=30.0, help="10 K is the rule of thumb (common practice).", when=("method", "doubling"), group="limits"),
         Field("activation", "Activation energy", "molar_energy", None, min=10.0, max=300.0,
               optional=True, help="Leave blank to match the rule of thumb at the reference "
-                                  "temperature."),
+                                  "temperature.", when=("method", "arrhenius")),
         *_profile_fields(),
     ),
     outputs=(
@@ -234,15 +234,15 @@ RESERVE_BANDS_WATCH_SOON = RESERVE_BANDS[:2] + (
     inputs=(
         Field("new_value", "Reading of the new oil", "ratio", 100.0, min=0.001, max=1.0e5,
               help="100 when readings are % of new; the new oil's RPVOT minutes when readings "
-                   "are in minutes."),
-        Field("reserve_before", "Earlier reading", "ratio", 80.0, min=0.0, max=1.0e5),
-        Field("reserve_now", "Reading now", "ratio", 62.0, min=0.0, max=1.0e5),
+                   "are in minutes.", usual=(0.001, 1.0e5)),
+        Field("reserve_before", "Earlier reading", "ratio", 80.0, min=0.0, max=1.0e5, usual=(0.0, 1.0e5)),
+        Field("reserve_now", "Reading now", "ratio", 62.0, min=0.0, max=1.0e5, usual=(0.0, 1.0e5)),
         Field("interval", "Hours between the readings", _H, 2000.0, min=1.0, max=1.0e6,
               help="Running hours, or calendar hours (days × 24); the answer comes out in the "
                    "same kind of hours."),
         Field("limit_pct", "Condemning limit, % of new", "percent", 25.0, min=1.0, max=95.0,
-              help="25 % of new: common practice for turbine oils (ASTM D4378, from memory)."),
-        Field("watch_pct", "Watch level, % of new", "percent", 50.0, min=2.0, max=99.0),
+              help="25 % of new: common practice for turbine oils (ASTM D4378, from memory).", group="limits"),
+        Field("watch_pct", "Watch level, % of new", "percent", 50.0, min=2.0, max=99.0, group="limits"),
         Field("next_sample", "Hours to the next sample", _H, None, min=1.0, max=1.0e6,
               optional=True, help="Blank: the same as the hours between the two readings."),
     ),

@@ -63,7 +63,7 @@ GIVE_BANDS = (
     inputs=(
         Field("air", "Free air in the oil, at atmospheric pressure", _PCT, 1.0, min=0.0,
               max=50.0, help="Volume of bubbles per volume of oil, as in a sample that has "
-                             "just been drawn (milky oil holds several per cent)."),
+                             "just been drawn (milky oil holds several per cent).", usual=(0.0, 15.0)),
         Field("pressure", "Working pressure (gauge)", _P, 160.0, min=0.0, max=1000.0,
               binds="working_pressure"),
         Field("process", "How fast the pressure changes", "choice", "isothermal",
@@ -72,15 +72,15 @@ GIVE_BANDS = (
                    "the air heats as it is squeezed and is stiffer."),
         Field("k_oil", "Bulk modulus of air-free oil", _P, K_OIL_BAR, min=1000.0, max=50000.0,
               help="About 16 000 bar for mineral oil (from memory); water glycols and esters "
-                   "differ: use the oil maker's figure."),
+                   "differ: use the oil maker's figure.", usual=(12000.0, 20000.0), group="limits"),
         Field("atmosphere", "Atmospheric pressure (absolute)", "absolute_pressure",
               ATMOSPHERE_ROUNDED_BAR, min=0.5,
-              max=1.1),
-        Field("bore", "Cylinder bore", _MM, 100.0, min=5.0, max=2000.0),
+              max=1.1, usual=(0.75, 1.05), group="limits"),
+        Field("bore", "Cylinder bore", _MM, 100.0, min=5.0, max=2000.0, usual=(16.0, 500.0)),
         Field("stroke", "Oil column length (stroke)", _MM, 500.0, min=1.0, max=20000.0,
-              help="Length of the oil column under the piston: the full stroke when extended."),
+              help="Length of the oil column under the piston: the full stroke when extended.", usual=(10.0, 5000.0)),
         Field("line_volume", "Oil in the lines to the cylinder", "volume", 0.0, min=0.0,
-              max=10000.0, help="Oil between the valve and the cylinder, which is pressed too."),
+              max=10000.0, help="Oil between the valve and the cylinder, which is pressed too.", usual=(0.0, 1000.0)),
         Field("load", "Load on the cylinder", "force", 100.0, min=0.0, max=100000.0),
     ),
     outputs=(

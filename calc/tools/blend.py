@@ -104,7 +104,7 @@ def _kv_field(n: int, default: float | None) -> Field:
 def _amount_field(n: int, default: float | None) -> Field:
     return Field(f"amount{n}", f"Oil {n}: amount in the mix", "ratio", default, min=0.0,
                  max=1.0e9, optional=default is None,
-                 help="Mix only: parts in any one unit (litres, kg or %), all the same unit.")
+                 help="Mix only: parts in any one unit (litres, kg or %), all the same unit.", usual=(0.0, 1.0e9), when=("mode", "mix"))
 
 
 MODE_CHOICES = (("mix", "Viscosity of a mix"), ("top_up", "Top-up of oil B to reach a target"))
@@ -210,19 +210,19 @@ def _top_up(result: Result, kv_a: float, kv_b: float, target: float, tank_l: flo
         _kv_field(3, None), _amount_field(3, None),
         _kv_field(4, None), _amount_field(4, None),
         Field("basis", "Amounts are", "choice", "volume", choices=BASIS_CHOICES,
-              help="Mix only."),
+              help="Mix only.", when=("mode", "mix")),
         Field("grade", "Grade that should be in the tank", "choice", MAIN_GRADE,
               choices=EXPECTED_CHOICES, binds="grade",
               help="The result is judged against this grade's ISO 3448 band; by default the "
                    "grade the main oil (oil A for a top-up) is in."),
         Field("oil_volume", "Oil A in the tank now", _VOL, 200.0, min=0.1, max=1.0e6,
-              binds="oil_volume", help="Top-up only."),
+              binds="oil_volume", help="Top-up only.", when=("mode", "top_up")),
         Field("tank_volume", "Tank capacity", _VOL, None, min=0.1, max=1.0e6, optional=True,
               binds="tank_volume",
               help="Top-up only. When the top-up does not fit, the tool says how much oil A to "
-                   "drain first."),
+                   "drain first.", when=("mode", "top_up")),
         Field("target_kv", "Target viscosity", _KV, 50.0, min=KV_MIN_CST, max=KV_MAX_CST,
-              help="Top-up only: at the same temperature as oils A and B."),
+              help="Top-up only: at the same temperature as oils A and B.", when=("mode", "top_up")),
     ),
     outputs=(
         Output("kv_mix", "Viscosity of the mix", _KV, "At the temperature of the entered "

@@ -82,17 +82,24 @@ _SCALE = "count"
 
 def _count_field(key: str, size: int, default: float) -> Field:
     return Field(key, f"Particles ≥{size} µm(c) per mL", _COUNT, default, min=0.0, max=1.0e8,
-                 help="Cumulative count per mL from the particle counter or lab report.")
+                 help="Cumulative count per mL from the particle counter or lab report.",
+                 when=("source", "counts"))
+
+
+# ISO 4406 scale numbers usual in hydraulic work: about 8 (very clean, servo systems) to
+# 24 (dirty) (common practice).
+USUAL_SCALE = (8.0, 24.0)
 
 
 def scale_fields(prefix: str, label: str, help_text: str, *, target: bool = False,
-                 reading: bool = False) -> tuple[Field, ...]:
+                 reading: bool = False, when: tuple | None = None) -> tuple[Field, ...]:
     """Three optional scale-number fields `<prefix>4`, `<prefix>6`, `<prefix>14`: a target
     (taken from the machine card's own target) or a reading (followed over time)."""
     return tuple(Field(f"{prefix}{size}", f"{label}, ≥{size} µm(c)", _SCALE, None, min=0.0,
                        max=float(TOP_SCALE), optional=True, help=help_text,
                        binds=f"target{size}" if target else None,
-                       tracks=f"iso4406_{size}" if reading else None)
+                       tracks=f"iso4406_{size}" if reading else None, usual=USUAL_SCALE,
+                       when=when)
                  for size in SIZES_UM)
 
 
@@ -131,7 +138,7 @@ def add_cleanliness_verdict(result: Result, measured: Code, target: Code) -> Non
         _count_field("count6", 6, 410.0),
         _count_field("count14", 14, 52.0),
         *scale_fields("scale", "Code on the report", "Used when starting from a code; leave "
-                      "blank for a size written '-'."),
+                      "blank for a size written '-'.", when=("source", "code")),
         Field("component", "Most sensitive component", "choice", "piston", binds="component",
               choices=COMPONENT_CHOICES),
         Field("pressure", "Working pressure", "pressure", 160.0, min=0.0, max=1000.0,
@@ -202,7 +209,7 @@ def iso_4406(source: str, count4: float, count6: float, count14: float,
     topic=CLEANLINESS,
     inputs=(
         Field("beta", "Rated beta ratio", "ratio", 200.0, min=1.0, max=1.0e7,
-              help="β at the rated size from the element's data sheet, e.g. β10(c) ≥ 200."),
+              help="β at the rated size from the element's data sheet, e.g. β10(c) ≥ 200.", usual=(2.0, 4000.0)),
         Field("upstream", "Count before the filter, per mL", _COUNT, 2500.0, min=0.0, max=1.0e8,
               help="At the beta's particle size."),
         Field("downstream", "Count after the filter, per mL", _COUNT, None, min=0.0, max=1.0e8,

@@ -32,7 +32,7 @@ _KV, _PCT, _AN, _PPM = "kinematic_viscosity", "percent", "acid_number", "ppm"
 
 def _limit(key: str, label: str, quantity: str, default: float, low: float, high: float,
            basis: str) -> Field:
-    return Field(key, label, quantity, default, min=low, max=high, help=basis)
+    return Field(key, label, quantity, default, min=low, max=high, help=basis, group="limits")
 
 
 # Each reading against its watch and act limits (typed on the form, so named); reaching a
@@ -110,8 +110,8 @@ def _limits(quantity: str, value: float, watch: float, act: float) -> dict:
     inputs=(
         Field("kv40_new", "KV40 of the new oil", _KV, 46.0, min=1.0, max=10000.0,
               binds="kv40_new",
-              help="From the new-oil data sheet or the first sample."),
-        Field("kv40_now", "KV40 now", _KV, 49.5, min=1.0, max=10000.0, tracks="kv40"),
+              help="From the new-oil data sheet or the first sample.", usual=(9.0, 750.0)),
+        Field("kv40_now", "KV40 now", _KV, 49.5, min=1.0, max=10000.0, tracks="kv40", usual=(9.0, 750.0)),
         Field("an_new", "Acid number of the new oil", _AN, None, min=0.0, max=20.0, optional=True,
               binds="an_new"),
         Field("an_now", "Acid number now", _AN, None, min=0.0, max=50.0, optional=True,

@@ -127,7 +127,7 @@ def _plain(value: float) -> str:
             "(ASTM D2161) and back.",
     topic=UNITS,
     inputs=(
-        Field("value", "Value", "ratio", 46.0, min=-1.0e9, max=1.0e9),
+        Field("value", "Value", "ratio", 46.0, min=-1.0e9, max=1.0e9, usual=(-1.0e9, 1.0e9)),
         Field("from_unit", "From", "choice", "cst", choices=UNIT_CHOICES),
         Field("to_unit", "To", "choice", "sus_100f", choices=UNIT_CHOICES),
         Field("temp", "Temperature of the Saybolt reading", "temperature", 37.77777777777778,

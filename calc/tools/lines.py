@@ -76,11 +76,11 @@ def velocity_range(line: str, pressure_bar: float = 0.0) -> tuple[float, float]:
                    "comes back, which a cylinder's cap side can make larger than the pump's."),
         Field("bore", "Inside diameter (bore)", _MM, 25.0, min=1.0, max=600.0,
               help="The inside diameter, not the outside diameter of the tube or the fitting's "
-                   "thread size."),
+                   "thread size.", usual=(4.0, 150.0)),
         Field("line", "Line type", "choice", "pressure", choices=LINE_CHOICES),
         Field("pressure", "Working pressure (pressure lines)", "pressure", 160.0, min=0.0,
               binds="working_pressure",
-              max=1000.0, help="Used only for pressure lines: higher pressure allows faster oil."),
+              max=1000.0, help="Used only for pressure lines: higher pressure allows faster oil.", when=("line", "pressure")),
         Field("target_velocity", "Target velocity", _V, None, min=0.1, max=20.0, optional=True,
               help="Leave blank to size for the top of the common-practice range."),
     ),

@@ -72,17 +72,17 @@ def _fitted_alpha(p1: float, reading1: float, p2: float, reading2: float) -> flo
               choices=(("entered", "Entered below"), ("fitted", "Fitted from two readings"))),
         Field("alpha", "Coefficient", _ALPHA, 2.0e-3, min=ALPHA_MIN_PER_BAR,
               max=ALPHA_MAX_PER_BAR, help="From the oil's data sheet; mineral oils are typically "
-                                          "0.0015 to 0.0025 1/bar (15 to 25 1/GPa)."),
+                                          "0.0015 to 0.0025 1/bar (15 to 25 1/GPa).", when=("alpha_from", "entered")),
         # The two readings' defaults are an invented example (12.0 s at 100 bar, 23.5 s at
         # 400 bar: 2.24e-3 1/bar), not the data of any test.
         Field("p1", "Pressure of reading 1", _P, 100.0, min=0.0, max=PRESSURE_MAX_BAR,
-              help="Fitted only."),
+              help="Fitted only.", when=("alpha_from", "fitted")),
         Field("reading1", "Reading 1", "ratio", 12.0, min=1.0e-6, max=1.0e9,
               help="Fitted only: a viscosity, a falling-ball time or a flow time; both readings "
-                   "in the same unit."),
+                   "in the same unit.", usual=(1.0e-6, 1.0e9), when=("alpha_from", "fitted")),
         Field("p2", "Pressure of reading 2", _P, 400.0, min=0.0, max=PRESSURE_MAX_BAR,
-              help="Fitted only."),
-        Field("reading2", "Reading 2", "ratio", 23.5, min=1.0e-6, max=1.0e9, help="Fitted only."),
+              help="Fitted only.", when=("alpha_from", "fitted")),
+        Field("reading2", "Reading 2", "ratio", 23.5, min=1.0e-6, max=1.0e9, help="Fitted only.", usual=(1.0e-6, 1.0e9), when=("alpha_from", "fitted")),
     ),
     outputs=(
         Output("kv_p", "Viscosity at pressure", _KV,

@@ -98,7 +98,7 @@ VELOCITY_BANDS = (
 
 
 def _count(key: str, label: str, default: float) -> Field:
-    return Field(key, label, "count", default, min=0.0, max=20.0, binds=key,
+    return Field(key, label, "count", default, min=0.0, max=20.0, binds=key, usual=(0.0, 8.0),
                  help="How many in the suction line between the tank and the pump.")
 
 
@@ -112,16 +112,16 @@ def _count(key: str, label: str, default: float) -> Field:
         Field("pump_flow", "Pump flow", "flow", 100.0, min=0.1, max=5000.0, binds="pump_flow"),
         Field("suction_bore", "Suction line bore", "length", 50.0, min=5.0, max=600.0,
               binds="suction_bore",
-              help="Inside diameter of the narrowest part of the suction line."),
+              help="Inside diameter of the narrowest part of the suction line.", usual=(10.0, 150.0)),
         Field("suction_length", "Suction line length", "length_m", 1.5, min=0.0, max=100.0,
-              binds="suction_length"),
+              binds="suction_length", usual=(0.0, 5.0)),
         Field("roughness", "Wall roughness", "length", 0.045, min=0.0, max=5.0,
               help="About 0.045 mm for commercial steel pipe, 0.0015 mm for drawn tube "
-                   "(from memory of the Moody chart's table)."),
+                   "(from memory of the Moody chart's table).", usual=(0.0, 0.2), group="limits"),
         Field("suction_head", "Oil level above pump inlet", "length_m", 0.3, min=-10.0,
               max=30.0, binds="suction_head",
               help="Lowest working oil level minus inlet height; negative when the pump sits "
-                   "above the oil and has to lift it."),
+                   "above the oil and has to lift it.", usual=(-2.0, 3.0)),
         Field("entry", "Where the line leaves the tank", "choice", "sharp", binds="entry",
               choices=ENTRY_CHOICES),
         _count("elbows_90", "90° elbows (standard, screwed)", 2.0),
@@ -134,7 +134,7 @@ def _count(key: str, label: str, default: float) -> Field:
         Field("strainer", "Strainer drop, clean, warm", _P, 0.05, min=0.0, max=2.0,
               binds="strainer",
               help="The strainer's pressure drop at this flow at the operating temperature; "
-                   "0 if there is none."),
+                   "0 if there is none.", usual=(0.0, 0.3)),
         Field("strainer_model", "Strainer drop when cold", "choice", "viscous",
               choices=STRAINER_CHOICES),
         Field("bypass", "Strainer bypass", "choice", "yes", choices=BYPASS_CHOICES,
@@ -143,10 +143,10 @@ def _count(key: str, label: str, default: float) -> Field:
         Field("bypass_opens", "Bypass opens at", _P, BYPASS_OPENS_BAR, min=0.01, max=2.0,
               binds="bypass_opens",
               help="About 0.2 bar (3 psi) is usual (common practice, from memory); the "
-                   "strainer's data takes precedence."),
-        Field("kv40", "Oil viscosity at 40 °C", _KV, 46.0, min=0.5, max=1.0e5, binds="kv40_new"),
+                   "strainer's data takes precedence.", usual=(0.05, 0.5)),
+        Field("kv40", "Oil viscosity at 40 °C", _KV, 46.0, min=0.5, max=1.0e5, binds="kv40_new", usual=(9.0, 750.0)),
         Field("kv100", "Oil viscosity at 100 °C", _KV, 6.8, min=0.5, max=1.0e4,
-              binds="kv100_new"),
+              binds="kv100_new", usual=(2.0, 60.0)),
         Field("density", "Oil density", "density", 870.0, min=600.0, max=1300.0, binds="density",
               help="About 850 to 890 kg/m³ for mineral hydraulic oil (from memory)."),
         Field("temp_running", "Operating oil temperature", _T, 50.0, min=-40.0, max=150.0,
@@ -154,11 +154,11 @@ def _count(key: str, label: str, default: float) -> Field:
         Field("temp_cold", "Cold start oil temperature", _T, 0.0, min=-40.0, max=150.0,
               binds="temp_cold_start"),
         Field("atmosphere", "Atmospheric pressure (absolute)", _PA, ATMOSPHERE_ROUNDED_BAR,
-              min=0.5, max=1.1, help="1.013 bar at sea level; about 0.9 bar at 1000 m."),
+              min=0.5, max=1.1, help="1.013 bar at sea level; about 0.9 bar at 1000 m.", usual=(0.75, 1.05), group="limits"),
         Field("pump_min_inlet", "Pump minimum inlet pressure (absolute)", _PA, P_MIN_BAR,
               min=0.1, binds="pump_min_inlet",
               max=5.0,
-              help="From the pump's data sheet; 0.8 bar absolute is typical (common practice)."),
+              help="From the pump's data sheet; 0.8 bar absolute is typical (common practice).", usual=(0.4, 1.0)),
     ),
     outputs=(
         Output("velocity", "Velocity in the suction line", "velocity"),

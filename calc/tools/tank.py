@@ -22,13 +22,13 @@ def shape_fields() -> tuple[Field, ...]:
         Field("shape", "Tank shape", "choice", "rectangular", choices=SHAPE_CHOICES,
               binds="tank_shape"),
         Field("length", "Inside length", "length", 1200.0, **dim, binds="tank_length",
-              help="Rectangular tank or horizontal cylinder."),
+              help="Rectangular tank or horizontal cylinder.", usual=(200.0, 5000.0), when=("shape", ("rectangular", "horizontal"))),
         Field("width", "Inside width", "length", 800.0, **dim, binds="tank_width",
-              help="Rectangular tank only."),
+              help="Rectangular tank only.", usual=(200.0, 5000.0), when=("shape", "rectangular")),
         Field("height", "Inside height", "length", 700.0, **dim, binds="tank_height",
-              help="Rectangular tank or vertical cylinder."),
+              help="Rectangular tank or vertical cylinder.", usual=(200.0, 5000.0), when=("shape", ("rectangular", "vertical"))),
         Field("diameter", "Inside diameter", "length", 800.0, **dim, binds="tank_diameter",
-              help="Cylinders only."),
+              help="Cylinders only.", usual=(200.0, 5000.0), when=("shape", ("vertical", "horizontal"))),
     )
 
 
@@ -73,7 +73,7 @@ AIR_SPACE_BANDS = (
     topic=TANK,
     inputs=shape_fields() + (
         Field("level", "Oil level from the bottom", "length", 550.0, min=0.0, max=20000.0,
-              help="Measured inside, from the bottom of the tank to the oil surface."),
+              help="Measured inside, from the bottom of the tank to the oil surface.", usual=(50.0, 5000.0)),
         Field("volume", "Oil volume (to find its level)", _V, None, min=0.0, max=1.0e7,
               optional=True, help="Leave blank to compute the volume at the level above; enter a "
                                   "volume to find the level it stands at."),

@@ -165,9 +165,10 @@ def d341_chart(a: float, b: float, window: tuple[float, float, float, float],
     return chart.document(CHART_W, CHART_H, title, desc, body, "chart chart-d341")
 
 
-def _kv_field(key: str, label: str, default: float, help_text: str, binds: str) -> Field:
+def _kv_field(key: str, label: str, default: float, help_text: str, binds: str,
+              **declared) -> Field:
     return Field(key, label, _KV, default, min=KV_MIN_CST, max=KV_MAX_CST, help=help_text,
-                 binds=binds)
+                 binds=binds, **declared)
 
 
 def pump_limit_field(key: str, label: str) -> Field:
@@ -214,16 +215,16 @@ def note_preset_limits(result: Result, *limits: float | None) -> None:
         Field("oil_from", "Oil given by", "choice", "readings", choices=OIL_FROM),
         _kv_field("kv40", "Viscosity, reading 1", 46.0, binds="kv40_new", help_text="Usually "
                   "the KV at 40 °C from the "
-                  "data sheet or lab report."),
-        Field("temp1", "Temperature of reading 1", _T, 40.0, min=-60.0, max=250.0),
+                  "data sheet or lab report.", usual=(9.0, 750.0), when=("oil_from", "readings")),
+        Field("temp1", "Temperature of reading 1", _T, 40.0, min=-60.0, max=250.0, when=("oil_from", "readings")),
         _kv_field("kv100", "Viscosity, reading 2", 6.8, "Usually the KV at 100 °C.",
-                  binds="kv100_new"),
-        Field("temp2", "Temperature of reading 2", _T, 100.0, min=-60.0, max=250.0),
+                  binds="kv100_new", usual=(2.0, 60.0), when=("oil_from", "readings")),
+        Field("temp2", "Temperature of reading 2", _T, 100.0, min=-60.0, max=250.0, when=("oil_from", "readings")),
         Field("grade", "ISO VG grade", "choice", "VG 46", choices=GRADE_CHOICES, binds="grade",
               help="Used when the oil is given by grade and VI: its KV at 40 °C is the "
-                   "grade's mid-point."),
+                   "grade's mid-point.", when=("oil_from", "grade")),
         Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0, binds="vi",
-              help="Used with the grade; from the oil's data sheet."),
+              help="Used with the grade; from the oil's data sheet.", when=("oil_from", "grade")),
         Field("temp", "Oil temperature now", _T, 50.0, min=-60.0, max=250.0, tracks="oil_temp",
               help="Measured in the tank or at the pump inlet."),
         *PUMP_FIELDS,

@@ -111,9 +111,9 @@ def reading_fields() -> tuple[Field, ...]:
               help="A sensor in the oil reads % saturation at the oil's temperature; a lab "
                    "reports ppm by Karl Fischer (ASTM D6304)."),
         Field("rh", "Sensor reading, % saturation", "percent", 30.0, min=0.0, max=100.0,
-              help="Used when the reading is from a sensor. Water activity 0.30 is 30 %."),
+              help="Used when the reading is from a sensor. Water activity 0.30 is 30 %.", when=("reading", "rh")),
         Field("ppm", "Lab water content", _PPM, 150.0, min=0.0, max=100000.0,
-              help="Used when the reading is from a lab report, ppm by mass."),
+              help="Used when the reading is from a lab report, ppm by mass.", when=("reading", "ppm")),
         Field("temp", "Oil temperature at the reading", _T, 50.0, min=-40.0, max=150.0,
               tracks="oil_temp",
               help="The sensor's own temperature reading, or the tank temperature."),

@@ -40,7 +40,7 @@ def _answer_of(page, tool):
 def test_every_tool_shows_the_cli_answer(shared_page, tool):
     page, watch = shared_page
     shown = _answer_of(page, tool)
-    expected = bridge.run(tool, {})
+    expected = bridge.run(tool, {}, examples=True)
     assert expected["ok"]
     for key, text in expected["text"].items():
         assert shown[key] == text, f"{tool}.{key}"
@@ -56,7 +56,7 @@ def test_first_tool_numbers_match_the_issue_example(page, base_url, watch):
     form.locator('[name="temp"]').fill("60")
     page.wait_for_function("""() => document.querySelector(
         'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent === '20.6 cSt'""")
-    cli = bridge.run("viscosity-at-temperature", {"kv40": "46", "kv100": "6.8", "temp": "60"})
+    cli = bridge.run("viscosity-at-temperature", {"kv40": "46", "kv100": "6.8", "temp": "60"}, examples=True)
     for key in ("t_start", "t_opt_cold", "t_opt_hot", "t_min"):
         assert form.locator(f'[data-out="{key}"]').inner_text() == cli["text"][key]
     assert form.locator('input[name="kv40"]').get_attribute("inputmode") == "decimal"
@@ -172,7 +172,7 @@ def test_no_answer_blocks_the_page(page, base_url):
     field = form.locator('[name="temp"]')
     for value in ("1", "12", "-5", "70", "45"):
         field.fill(value)
-    expected = bridge.run("viscosity-at-temperature", {"temp": "45"})
+    expected = bridge.run("viscosity-at-temperature", {"temp": "45"}, examples=True)
     page.wait_for_function("""() => document.querySelector(
         'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent === %r""" % (
         expected["text"]["kv"],))

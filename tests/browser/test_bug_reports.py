@@ -32,7 +32,7 @@ class _Faulty:
 @pytest.fixture
 def bug_answer(monkeypatch):
     monkeypatch.setattr(bridge.registry, "get", lambda tool_id: _Faulty())
-    answer = bridge.run(TOOL, {"temp": "45"})
+    answer = bridge.run(TOOL, {"temp": "45"}, examples=True)
     monkeypatch.undo()
     assert answer["ok"] is False and "ZeroDivisionError" in answer["bug"]["error"]
     return answer

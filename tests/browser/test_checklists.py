@@ -27,7 +27,7 @@ def _rank(page, tool):
     page.wait_for_function(
         "s => document.querySelectorAll(s + ' [data-ranking] li').length > 0",
         arg=view, timeout=BOOT_TIMEOUT_MS)
-    return bridge.run(tool, {flag: "yes"})
+    return bridge.run(tool, {flag: "yes"}, examples=True)
 
 
 def _pdf_pages_and_text(pdf: bytes):
@@ -79,6 +79,6 @@ def test_tool_result_flows_back_into_the_checklist(page, base_url):
     page.click("[data-back] a")
     reading = page.locator(f'#view-tool-{name} [data-reading-of="{tool}"]').first
     # The tool's headline outputs, as the tool declares them, and the level of its answer.
-    answer = bridge.run(tool, {})
+    answer = bridge.run(tool, {}, examples=True)
     headline = ", ".join(answer["text"][key] for key in answer["headline"])
     assert reading.inner_text() == f"Latest: {headline} ({LEVEL_WORD[answer['level']]})"

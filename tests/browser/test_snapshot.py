@@ -33,7 +33,7 @@ def _status(page) -> tuple[str, str, str]:
 
 
 def _answers_like_the_cli(page) -> None:
-    expected = bridge.run(TOOL, {})
+    expected = bridge.run(TOOL, {}, examples=True)
     assert wait_answer(page, TOOL, "kv") == expected["text"]["kv"]
 
 

@@ -24,7 +24,8 @@ from ..kernel.result import COMMON_PRACTICE, Q, Result
 
 
 @tool("zz-doubled", title="Zz doubled length", summary="Twice the length typed.", topic=UNITS,
-      inputs=(Field("length", "Length", "length", 10.0, min=0.0, max=1000.0),),
+      inputs=(Field("length", "Length", "length", 10.0, min=0.0, max=1000.0,
+                   usual=(1.0, 100.0)),),
       outputs=(Output("twice", "Twice the length", "length", headline=True),))
 def doubled(length: float) -> Result:
     result = Result(values={"twice": 2.0 * length})

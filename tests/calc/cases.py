@@ -10,10 +10,14 @@ from calc.kernel import registry
 
 
 def random_inputs(found: registry.Tool, rng: random.Random) -> dict:
-    """One set of typed inputs: about 30 % of the fields left blank, the rest in range."""
-    inputs = {}
+    """One set of typed inputs: about 30 % of the fields left blank, the rest in range; a
+    field the chosen mode does not use is left out (it would be refused)."""
+    inputs, modes = {}, found.default_modes()
     for f in found.inputs:
-        if rng.random() < 0.3:
+        if f.key in modes and rng.random() >= 0.3:
+            modes[f.key] = inputs[f.key] = rng.choice(f.choices)[0]
+    for f in found.inputs:
+        if f.key in modes or not found.uses(f, modes) or rng.random() < 0.3:
             continue
         if f.is_flag:
             inputs[f.key] = rng.choice(["yes", "no"])
@@ -33,7 +37,8 @@ def random_inputs(found: registry.Tool, rng: random.Random) -> dict:
 
 
 def cases(per_tool: int = 40, seed: int = 20261202) -> list[tuple[str, dict]]:
-    """(tool id, inputs) for every tool: its defaults, then `per_tool` seeded random sets."""
+    """(tool id, inputs) for every tool: its defaults, then `per_tool` seeded random sets
+    (run them with examples, as the blank fields take the tools' examples)."""
     rng = random.Random(seed)
     out = []
     for tool_id, found in registry.tools().items():

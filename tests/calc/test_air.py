@@ -103,7 +103,7 @@ def test_heavy_air_at_low_pressure_is_act():
 
 
 def test_bridge_us_units():
-    us = bridge.run("air-stiffness", {"pressure": 2320.6, "bore": 3.937, "load": 22480.9}, "us")
+    us = bridge.run("air-stiffness", {"pressure": 2320.6, "bore": 3.937, "load": 22480.9}, "us", examples=True)
     assert us["ok"] and us["units"]["k_eff"] == "psi" and us["units"]["lost_motion"] == "in"
 
 
@@ -112,6 +112,6 @@ def test_lost_motion_is_judged_as_well_as_the_stiffness():
     # but adds 68.5 mm of give to a 1 m stroke, 6.9 % of it: act (common practice, from memory:
     # act at 5 % of the stroke, watch at 1 %).
     answer = bridge.run("air-stiffness", {"air": 5, "pressure": 50, "load": 30, "bore": 80,
-                                          "stroke": 1000, "line_volume": 2})
+                                          "stroke": 1000, "line_volume": 2}, examples=True)
     assert answer["values"]["lost_motion_air"] == pytest.approx(68.5, abs=0.1)
     assert [v["level"] for v in answer["verdicts"]] == ["watch", "act"]

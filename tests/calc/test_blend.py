@@ -142,7 +142,7 @@ def test_four_parts_and_blank_parts():
 
 
 def test_bridge_top_up_in_us_gallons():
-    metric = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 378.5411784, "target_kv": 55})
-    us = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 100, "target_kv": 55}, "us")
+    metric = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 378.5411784, "target_kv": 55}, examples=True)
+    us = bridge.run("viscosity-blend", {"mode": "top_up", "oil_volume": 100, "target_kv": 55}, "us", examples=True)
     assert us["units"]["top_up"] == "US gal"
     assert us["values"]["top_up"] * 3.785411784 == pytest.approx(metric["values"]["top_up"])

@@ -27,7 +27,7 @@ def _assert_csp_safe(root):
 
 
 def test_viscosity_chart_has_line_band_and_point():
-    answer = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 60})
+    answer = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 60}, examples=True)
     root = _parse(answer["charts"]["viscosity"])
     assert root.tag == SVG + "svg"
     assert root.get("role") == "img" and root.get("viewBox")
@@ -40,7 +40,7 @@ def test_viscosity_chart_has_line_band_and_point():
 
 
 def test_limits_differ_by_dash_pattern_not_only_colour():
-    answer = bridge.run("viscosity-at-temperature", {})
+    answer = bridge.run("viscosity-at-temperature", {}, examples=True)
     root = _parse(answer["charts"]["viscosity"])
     dashes = {el.get("class"): el.get("stroke-dasharray") for el in root.iter()
               if el.get("class", "").startswith("limit ")}
@@ -50,7 +50,7 @@ def test_limits_differ_by_dash_pattern_not_only_colour():
 def test_point_sits_on_the_line():
     # The operating point is drawn at the oil's viscosity at that temperature, so it lies on
     # the polyline: some segment of the line passes within a pixel of the marker's centre.
-    answer = bridge.run("viscosity-at-temperature", {"temp": 35})
+    answer = bridge.run("viscosity-at-temperature", {"temp": 35}, examples=True)
     root = _parse(answer["charts"]["viscosity"])
     line = next(el for el in root.iter() if el.get("class") == "oil-line")
     pts = [tuple(map(float, p.split(","))) for p in line.get("points").split()]
@@ -71,7 +71,7 @@ def test_point_sits_on_the_line():
     {"visc_start": 2000, "visc_opt_high": 80, "visc_opt_low": 20, "visc_min": 12},
 ])
 def test_chart_is_well_formed_at_the_edges(inputs):
-    answer = bridge.run("viscosity-at-temperature", inputs)
+    answer = bridge.run("viscosity-at-temperature", inputs, examples=True)
     assert answer["ok"], answer
     root = _parse(answer["charts"]["viscosity"])
     _assert_csp_safe(root)
@@ -117,7 +117,7 @@ def _labels(root):
 @pytest.mark.parametrize("tool_id, name, axis, scale", TEMPERATURE_CHARTS)
 def test_chart_follows_the_unit_system(tool_id, name, axis, scale):
     from calc.kernel import registry
-    result = registry.get(tool_id).run({}, "metric")
+    result = registry.get(tool_id).run({}, "metric", examples=True)
     draw = result.charts[name]
     assert callable(draw)
     metric, us = _parse(draw("metric")), _parse(draw("us"))
@@ -140,14 +140,14 @@ def test_chart_follows_the_unit_system(tool_id, name, axis, scale):
         assert f % 5 == 0  # round in degF
         assert x == pytest.approx(x0 + q * (scale((f - 32.0) * 5.0 / 9.0) - scale(c0)), abs=0.2)
     # The bridge draws the reader's system.
-    answer = bridge.run(tool_id, {}, "us")
+    answer = bridge.run(tool_id, {}, "us", examples=True)
     assert answer["charts"][name] == draw("us")
-    assert bridge.run(tool_id, {}, "metric")["charts"][name] == draw("metric")
+    assert bridge.run(tool_id, {}, "metric", examples=True)["charts"][name] == draw("metric")
 
 
 def test_us_viscosity_chart_says_fahrenheit_and_keeps_centistokes():
     # 60 degC = 140 degF (NIST SP 811, B.9); viscosity stays in cSt in both systems (calc.units).
-    root = _parse(bridge.run("viscosity-at-temperature", {"temp": 140}, "us")["charts"]["viscosity"])
+    root = _parse(bridge.run("viscosity-at-temperature", {"temp": 140}, "us", examples=True)["charts"]["viscosity"])
     point = next(el for el in root.iter(SVG + "text") if el.get("class") == "point-label")
     assert point.text == "140.0 °F: 20.6 cSt"
     axis_labels = [el.text for el in root.iter(SVG + "text") if el.get("class") == "axis-label"]
@@ -157,7 +157,7 @@ def test_us_viscosity_chart_says_fahrenheit_and_keeps_centistokes():
 def test_cli_writes_the_us_chart(tmp_path, capsys):
     from calc.__main__ import main
     out = tmp_path / "x.svg"
-    assert main(["run", "viscosity-at-temperature", "--units", "us", "--svg", str(out)]) == 0
+    assert main(["run", "viscosity-at-temperature", "--units", "us", "--svg", str(out), "--example"]) == 0
     capsys.readouterr()
     root = _parse(out.read_text(encoding="utf-8"))
     assert "°F" in _labels(root) and "°C" not in _labels(root)

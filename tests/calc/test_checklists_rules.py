@@ -87,7 +87,7 @@ def test_working_cooler_and_hot_room_point_to_the_surroundings():
 
 
 def test_cooler_out_warmer_than_in_is_refused():
-    answer = bridge.run("checklist-overheating", {"cooler_in": 50, "cooler_out": 60})
+    answer = bridge.run("checklist-overheating", {"cooler_in": 50, "cooler_out": 60}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "cooler_out"
 
 
@@ -133,7 +133,7 @@ def test_metal_on_the_filter_points_to_wear():
 
 
 def test_a_code_rising_to_larger_particles_is_refused():
-    answer = bridge.run("checklist-contamination", {"code_4": 14, "code_6": 16, "code_14": 13})
+    answer = bridge.run("checklist-contamination", {"code_4": 14, "code_6": 16, "code_14": 13}, examples=True)
     assert answer["errors"][0]["field"] == "code_6"
 
 

@@ -173,7 +173,7 @@ def test_tool_own_target_and_errors():
 
 
 def test_bridge_runs_iso_4406_with_typed_numbers():
-    answer = bridge.run("iso-4406", {"count4": "2 100", "count6": "480,5", "count14": "60"})
+    answer = bridge.run("iso-4406", {"count4": "2 100", "count6": "480,5", "count14": "60"}, examples=True)
     assert answer["ok"] and answer["values"]["code"] == "18/16/13"
 
 

@@ -106,7 +106,7 @@ def test_half_pairs_are_refused_naming_the_missing_field():
 def test_bridge_with_a_lab_report():
     answer = bridge.run("oil-condition", {"kv40_new": 46, "kv40_now": "44,1", "ppm": 650,
                                           "code4": 20, "code6": 18, "code14": 15,
-                                          "target4": 18, "target6": 16, "target14": 13})
+                                          "target4": 18, "target6": 16, "target14": 13}, examples=True)
     assert answer["ok"] and answer["level"] == "act"
     assert answer["verdicts"][0]["level"] == "act"
 
@@ -122,11 +122,11 @@ def test_water_is_read_against_saturation_when_the_oil_and_temperature_are_known
     # The review's case: 450 ppm is over the 200 ppm watch limit, and the same additive mineral
     # oil holds only about 338 ppm dissolved at 40 degC (the water-in-oil tool's preset, from
     # memory): 133 % of saturation, free water, act.
-    answer = bridge.run("oil-condition", {"ppm": 450, "temp": 40, "oil": "mineral-aw"})
-    water = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 450, "temp": 40})
+    answer = bridge.run("oil-condition", {"ppm": 450, "temp": 40, "oil": "mineral-aw"}, examples=True)
+    water = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 450, "temp": 40}, examples=True)
     assert answer["values"]["water_saturation"] == pytest.approx(
         450.0 / water["values"]["sat"] * 100.0, rel=1e-12)
     assert answer["level"] == "act"
-    alone = bridge.run("oil-condition", {"ppm": 450})
+    alone = bridge.run("oil-condition", {"ppm": 450}, examples=True)
     assert alone["values"]["water_saturation"] is None
     assert any("saturation" in n for n in alone["notes"])

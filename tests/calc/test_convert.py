@@ -52,7 +52,7 @@ def test_units_of_different_kinds_are_refused_naming_the_field():
     with pytest.raises(InputError) as err:
         convert(1.0, "bar", "l")
     assert err.value.field == "to_unit"
-    answer = bridge.run("unit-convert", {"value": 3, "from_unit": "kw", "to_unit": "gpm"})
+    answer = bridge.run("unit-convert", {"value": 3, "from_unit": "kw", "to_unit": "gpm"}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "to_unit"
 
 
@@ -109,7 +109,7 @@ def test_tool_text_shows_both_sides():
 def test_bridge_is_the_same_in_both_unit_systems():
     # value, from and to carry their own units; only the Saybolt temperature field converts.
     metric = bridge.run("unit-convert", {"value": 60, "from_unit": "sus_at_temp", "to_unit": "cst",
-                                         "temp": 50})
+                                         "temp": 50}, examples=True)
     us = bridge.run("unit-convert", {"value": 60, "from_unit": "sus_at_temp", "to_unit": "cst",
-                                     "temp": 122}, "us")
+                                     "temp": 122}, "us", examples=True)
     assert us["values"]["converted"] == pytest.approx(metric["values"]["converted"], rel=1e-12)

@@ -77,5 +77,5 @@ def test_target_above_cold_saturation_is_act():
 
 
 def test_bridge_names_bad_efficiency():
-    answer = bridge.run("water-drying", {"dryer_efficiency": "0"})
+    answer = bridge.run("water-drying", {"dryer_efficiency": "0"}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "dryer_efficiency"

@@ -92,13 +92,13 @@ def test_overrides_replace_the_preset_and_say_so():
 
 
 def test_zero_air_release_limit_is_refused():
-    answer = bridge.run("foam-air-tests", {"limit_air_release": 0})
+    answer = bridge.run("foam-air-tests", {"limit_air_release": 0}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "limit_air_release"
 
 
 def test_us_units_keep_foam_in_ml():
     # ASTM D892 reports foam volumes in mL in US practice too; air release stays in minutes.
-    answer = bridge.run("foam-air-tests", {"seq1_tendency": 200, "seq1_stability": 20}, "us")
+    answer = bridge.run("foam-air-tests", {"seq1_tendency": 200, "seq1_stability": 20}, "us", examples=True)
     assert answer["units"]["tendency_limit_24"] == "mL"
     assert answer["values"]["tendency_limit_24"] == 150.0
     assert "20 mL of foam still standing" in answer["verdicts"][0]["message"]

@@ -42,7 +42,7 @@ def test_classification(kv40, inside, nearest):
 
 def test_between_grades_names_both():
     assert neighbours(55.0) == ("VG 46", "VG 68")
-    answer = bridge.run("viscosity-grade", {"kv": 55})
+    answer = bridge.run("viscosity-grade", {"kv": 55}, examples=True)
     assert answer["values"]["band"] == "between VG 46 and VG 68"
 
 
@@ -107,7 +107,7 @@ def test_selector_best_grade_agrees_with_viscosity_at_temperature():
     v = result.values
     assert v["best_grade"] == "VG 46" and v["vi_pick"] == 95.0
     check = bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": v["best_grade"],
-                                                    "vi": v["vi_pick"], "temp": 0})
+                                                    "vi": v["vi_pick"], "temp": 0}, examples=True)
     assert check["values"]["kv"] == pytest.approx(v["kv_cold"], rel=1e-9)
     assert v["kv_cold"] <= 700.0 and 16.0 <= v["kv_hot"] <= 40.0
 
@@ -136,7 +136,7 @@ def test_hot_below_cold_is_refused():
 
 
 def test_all_grades_include_undefined_thin_ones_with_a_reason():
-    answer = bridge.run("grade-selector", {"grades": "all", "vi_set": "sweep"})
+    answer = bridge.run("grade-selector", {"grades": "all", "vi_set": "sweep"}, examples=True)
     assert answer["ok"]
     assert any(n.startswith("VG 2 has no oil") for n in answer["notes"])
 
@@ -144,14 +144,14 @@ def test_all_grades_include_undefined_thin_ones_with_a_reason():
 def test_reading_elsewhere_too_thin_for_its_vi_names_the_reading():
     # 1 cSt at 60 degC traces back to a KV40 below H = 6.394 cSt at KV100 2 cSt (D2270
     # Table 1): no VI 100 oil reads that, and the reading is named.
-    answer = bridge.run("viscosity-grade", {"kv": 1.0, "kv_temp": 60})
+    answer = bridge.run("viscosity-grade", {"kv": 1.0, "kv_temp": 60}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "kv"
 
 
 def test_a_40c_reading_classifies_without_a_kv100():
     # VG 2 to VG 10 at 40 degC need no KV100 to classify (ISO 3448 grades are by KV40 alone);
     # D2270 has no KV100 for a VI-100 oil of 2.2 cSt, so none is given, and it says why.
-    answer = bridge.run("viscosity-grade", {"kv": 2.2, "grade": "VG 2"})
+    answer = bridge.run("viscosity-grade", {"kv": 2.2, "grade": "VG 2"}, examples=True)
     assert answer["ok"] and answer["values"]["band"] == "inside VG 2"
     assert answer["values"]["kv100"] is None and answer["level"] == "ok"
     assert any("2 cSt" in n or "D2270" in n for n in answer["notes"])
@@ -160,6 +160,6 @@ def test_a_40c_reading_classifies_without_a_kv100():
 def test_a_limit_of_the_standard_is_compared_as_written():
     # 50.6 cSt is VG 46's upper limit (ISO 3448 Table 1); 50.6 / 46 - 1 computes as
     # 10.0000000000001 %, which must not read as over it (ASTM E29 rounding method).
-    answer = bridge.run("viscosity-grade", {"kv": 50.6, "grade": "VG 46"})
+    answer = bridge.run("viscosity-grade", {"kv": 50.6, "grade": "VG 46"}, examples=True)
     assert answer["values"]["band"] == "inside VG 46" and answer["level"] == "ok"
-    assert bridge.run("viscosity-grade", {"kv": 50.7, "grade": "VG 46"})["level"] == "act"
+    assert bridge.run("viscosity-grade", {"kv": 50.7, "grade": "VG 46"}, examples=True)["level"] == "act"

@@ -168,7 +168,7 @@ def test_no_reachable_steady_state_is_not_shown_as_a_number():
     # The review's case: a 15 kW throttle loss on the default tank would settle near 293 degC
     # by the balance, past the seals' limit (about 100 degC, common practice, from memory) and
     # the oil's flash point: no number, an act, and the cooler it needs.
-    answer = bridge.run("tank-heat", {"load_from": "throttle"})
+    answer = bridge.run("tank-heat", {"load_from": "throttle"}, examples=True)
     assert answer["values"]["steady"] is None and answer["level"] == "act"
     assert "must not run like this" in answer["verdicts"][0]["message"]
     assert answer["values"]["cooler"] > 0.9 * answer["values"]["load"]
@@ -177,8 +177,8 @@ def test_no_reachable_steady_state_is_not_shown_as_a_number():
 def test_a_few_kelvin_over_the_target_is_a_watch_not_a_stop():
     # 4 kW at 80 % efficiency (0.8 kW) settles a few kelvin over the 55 degC target: plan a
     # small cooler or more air; "do not run" is kept for oil past 80 degC (common practice).
-    near = bridge.run("tank-heat", {"power": 4.0})
+    near = bridge.run("tank-heat", {"power": 4.0}, examples=True)
     assert 55.0 < near["values"]["steady"] < 60.0 and near["level"] == "watch"
     assert "do not run" not in near["verdicts"][0]["message"]
-    hot = bridge.run("tank-heat", {"power": 10.0})
+    hot = bridge.run("tank-heat", {"power": 10.0}, examples=True)
     assert hot["values"]["steady"] > 80.0 and "do not run" in hot["verdicts"][0]["message"]

@@ -88,7 +88,7 @@ def test_tool_target_velocity_sizes_the_bore():
 
 
 def test_bridge_us_units():
-    us = bridge.run("line-velocity", {"line_flow": 40, "bore": 1.0, "line": "return"}, "us")
+    us = bridge.run("line-velocity", {"line_flow": 40, "bore": 1.0, "line": "return"}, "us", examples=True)
     # By hand: 40 gpm in a 1 in bore = 4.980 m/s = 16.34 ft/s.
     assert us["values"]["velocity"] == pytest.approx(16.34, abs=0.01)
     assert us["units"]["bore_needed"] == "in"

@@ -138,12 +138,12 @@ def test_every_card_field_is_used():
 
 def test_old_keys_keep_working_or_name_the_new_one():
     # Renamed: the old key still works and gives the same answer.
-    assert bridge.run("tank-sizing", {"flow": "50"}) == bridge.run("tank-sizing",
-                                                                   {"pump_flow": "50"})
-    both = bridge.run("tank-sizing", {"flow": "50", "pump_flow": "60"})
+    assert bridge.run("tank-sizing", {"flow": "50"}, examples=True) == bridge.run("tank-sizing",
+                                                                   {"pump_flow": "50"}, examples=True)
+    both = bridge.run("tank-sizing", {"flow": "50", "pump_flow": "60"}, examples=True)
     assert not both["ok"] and "pump_flow" in both["errors"][0]["message"]
     # Retired with a new meaning: refused, naming what to give instead.
-    gone = bridge.run("tank-sizing", {"working_level": "80"})
+    gone = bridge.run("tank-sizing", {"working_level": "80"}, examples=True)
     assert not gone["ok"] and "oil_volume" in gone["errors"][0]["message"]
     for found in TOOLS.values():
         for old, new in found.renamed:
@@ -155,11 +155,12 @@ def _press():
 
 
 def _typed(found, facts, system):
-    """Every bound input the card knows, typed out in `system` as a technician would."""
+    """Every bound input the card knows that the tool's default mode uses, typed out in
+    `system` as a technician would (the card fills only the inputs the mode uses)."""
     typed = {}
     for f in found.inputs:
         fact = facts.get(f.binds) if f.binds else None
-        if fact is None:
+        if fact is None or not found.uses(f, found.default_modes()):
             continue
         if f.is_flag:
             typed[f.key] = "yes" if fact else "no"
@@ -189,8 +190,8 @@ def test_card_and_one_override_equals_all_typed(tool_id, system):
         changed[override.key] = (repr(units.from_metric(override.default, override.quantity,
                                                         system))
                                  if override.is_number else override.default)
-    with_card = bridge.run_for_machine(tool_id, changed, system, machine)
-    all_typed = bridge.run(tool_id, {**typed, **changed}, system)
+    with_card = bridge.run_for_machine(tool_id, changed, system, machine, examples=True)
+    all_typed = bridge.run(tool_id, {**typed, **changed}, system, examples=True)
     assert with_card["ok"] == all_typed["ok"]
     if with_card["ok"]:
         assert _without_card_marks(with_card) == all_typed
@@ -203,16 +204,16 @@ def test_a_card_value_a_tool_cannot_take_is_refused_naming_the_card():
     # VG 680 has no foam-test preset (ISO 11158 / DIN 51524 list VG 10 to VG 100, from
     # memory): the tool must not quietly use its own VG 46 instead.
     machine = {"id": "m1", "card": card.parse({"name": "Gearbox rig", "grade": "VG 680"})}
-    answer = bridge.run_for_machine("foam-air-tests", {"air_release": "20"}, "metric", machine)
+    answer = bridge.run_for_machine("foam-air-tests", {"air_release": "20"}, "metric", machine, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "grade"
     assert "machine card" in answer["errors"][0]["message"]
     # Typed for this reading, it runs.
     assert bridge.run_for_machine("foam-air-tests", {"grade": "VG 68", "air_release": "20"},
-                                  "metric", machine)["ok"]
+                                  "metric", machine, examples=True)["ok"]
 
 
 def test_without_a_machine_every_tool_works_as_before():
     for tool_id in TOOLS:
-        assert bridge.run_for_machine(tool_id, {}, "metric", {"id": "m", "card": {"name": "A"}}
-                                      ) == {**bridge.run(tool_id, {}), "from_card": [],
-                                            "inputs": TOOLS[tool_id].parse({})}
+        assert bridge.run_for_machine(tool_id, {}, "metric", {"id": "m", "card": {"name": "A"}}, examples=True
+                                      ) == {**bridge.run(tool_id, {}, examples=True), "from_card": [],
+                                            "inputs": TOOLS[tool_id].parse({}, examples=True)}

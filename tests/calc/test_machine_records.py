@@ -23,7 +23,7 @@ def test_a_reading_keeps_metric_inputs_and_what_it_measured():
     machine = _machine(oil_family="mineral-aw", temp_cold_start="5", tank_volume="300",
                        oil_volume="250")
     made = records.new_reading("water-in-oil", {"rh": "45", "temp": "122"}, "us", machine,
-                               STAMP, note="after the washdown")
+                               STAMP, note="after the washdown", examples=True)
     record = made["record"]
     # 122 degF = 50 degC (NIST SP 811, B.9); the sensor's 45 % is a % of saturation.
     assert record["inputs"]["temp"] == pytest.approx(50.0)
@@ -38,7 +38,7 @@ def test_a_reading_keeps_metric_inputs_and_what_it_measured():
 
 def test_a_reading_saved_in_metric_shows_in_us_units():
     record = records.new_reading("tank-sizing", {"tank_volume": "378.5411784"}, "metric", None,
-                                 STAMP)["record"]
+                                 STAMP, examples=True)["record"]
     metric, us = records.view(record, "metric"), records.view(record, "us")
     assert metric["text"]["tank_needed"].endswith(" L")
     assert us["text"]["tank_needed"].endswith(" US gal")
@@ -49,15 +49,17 @@ def test_a_reading_saved_in_metric_shows_in_us_units():
 
 def test_the_view_is_the_answer_computed_again():
     for tool_id in ("oil-condition", "suction-check", "checklist-water"):
-        record = records.new_reading(tool_id, {}, "metric", None, STAMP)["record"]
+        record = records.new_reading(tool_id, {}, "metric", None, STAMP, examples=True)["record"]
         view = records.view(record, "us")
-        fresh = bridge.run(tool_id, {}, "us")
+        fresh = bridge.run(tool_id, {}, "us", examples=True)
+        # The same answer; the parse's word that a value was an example is not kept.
+        fresh = {k: v for k, v in fresh.items() if k != "notices"}
         assert {k: view[k] for k in fresh} == fresh
 
 
 def test_a_checklist_view_lists_only_what_was_ticked():
     record = records.new_reading("checklist-water", {"milky_oil": "yes", "ppm": "650"},
-                                 "metric", None, STAMP)["record"]
+                                 "metric", None, STAMP, examples=True)["record"]
     view = records.view(record, "metric")
     flags = [i["label"] for i in view["inputs"] if i["flag"]]
     assert len(flags) == 1 and view["ranked"][0]["score"] > 0
@@ -66,18 +68,18 @@ def test_a_checklist_view_lists_only_what_was_ticked():
 def test_inputs_that_do_not_answer_are_not_saved():
     with pytest.raises(InputError) as err:
         records.new_reading("viscosity-index", {"kv40": "10", "kv100": "20"}, "metric", None,
-                            STAMP)
+                            STAMP, examples=True)
     assert err.value.field == "kv100"
     with pytest.raises(InputError) as err:
-        records.new_reading("tank-sizing", {}, "metric", None, "2026-03-04T09:15:00")
+        records.new_reading("tank-sizing", {}, "metric", None, "2026-03-04T09:15:00", examples=True)
     assert err.value.field == "time"  # a time without its offset is ambiguous
     with pytest.raises(InputError) as err:
-        records.new_reading("tank-sizing", {}, "metric", None, STAMP, note="x" * 2001)
+        records.new_reading("tank-sizing", {}, "metric", None, STAMP, note="x" * 2001, examples=True)
     assert err.value.field == "note"
 
 
 def test_an_old_record_with_renamed_keys_is_answered_again():
-    record = records.new_reading("line-velocity", {}, "metric", None, STAMP)["record"]
+    record = records.new_reading("line-velocity", {}, "metric", None, STAMP, examples=True)["record"]
     old = {**record, "inputs": {("flow" if k == "line_flow" else k): v
                                 for k, v in record["inputs"].items()}}
     assert records.view(old, "metric")["text"] == records.view(record, "metric")["text"]
@@ -87,7 +89,7 @@ def test_an_old_record_with_renamed_keys_is_answered_again():
 
 
 def test_a_record_that_no_longer_fits_keeps_its_followed_values():
-    record = records.new_reading("oil-condition", {"ppm": "300"}, "metric", None, STAMP)["record"]
+    record = records.new_reading("oil-condition", {"ppm": "300"}, "metric", None, STAMP, examples=True)["record"]
     broken = {**record, "inputs": {**record["inputs"], "kv40_now": "thick"}}
     view = records.view(broken, "metric")
     assert not view["ok"] and view["stale"] and view["tracked"]["water_ppm"] == 300.0
@@ -99,7 +101,7 @@ def _old_entry(rng, tool_id, index):
     found = registry.get(tool_id)
     units = rng.choice(["metric", "us"])
     inputs = random_inputs(found, rng) if index % 3 else {}
-    answer = bridge.run(tool_id, inputs, units)
+    answer = bridge.run(tool_id, inputs, units, examples=True)
     return {"id": index + 1, "at": f"2026-0{1 + index % 9}-{1 + index % 28:02d}T08:00:00.000Z",
             "machine": ["Press 2", "press 2", "Saw 1", ""][index % 4], "tool": tool_id,
             "title": found.title, "units": units, "inputs": inputs,

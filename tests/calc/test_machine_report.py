@@ -93,7 +93,7 @@ def test_csv_cells_never_run_as_formulas():
     machine = records.new_machine({"name": '=HYPERLINK("http://x","y")'}, "metric",
                                   "2026-03-04T09:15:00+01:00")
     reading = records.new_reading("tank-sizing", {}, "metric", machine,
-                                  "2026-03-04T09:15:00+01:00", note="@rm")["record"]
+                                  "2026-03-04T09:15:00+01:00", note="@rm", examples=True)["record"]
     rows = list(csv.reader(io.StringIO(report.csv_text([machine], [reading], "metric")
                                        .lstrip("\ufeff"))))
     assert all(not cell.startswith(("=", "+", "@")) for row in rows for cell in row)

@@ -24,7 +24,7 @@ def _finite(obj):
 
 @pytest.mark.parametrize("tool_id", sorted(TOOLS))
 def test_defaults_compute(tool_id):
-    answer = bridge.run(tool_id, {})
+    answer = bridge.run(tool_id, {}, examples=True)
     assert answer["ok"], answer
     assert answer["values"], "a tool must compute something from its defaults"
     assert _finite(answer)
@@ -56,18 +56,20 @@ def test_text_in_a_number_field_names_the_field(tool_id):
     numeric = [f for f in TOOLS[tool_id].inputs if not f.is_choice]
     if not numeric:
         pytest.skip("no numeric input")
-    answer = bridge.run(tool_id, {numeric[0].key: "lots"})
+    answer = bridge.run(tool_id, {numeric[0].key: "lots"}, examples=True)
     assert not answer["ok"]
     assert answer["errors"][0]["field"] == numeric[0].key
 
 
 @pytest.mark.parametrize("tool_id", sorted(TOOLS))
 def test_us_units_round_trip(tool_id):
-    # Defaults typed in US units come back to the same metric answer.
+    # Defaults typed in US units come back to the same metric answer (the fields the
+    # default modes use: one the mode does not use is refused).
     found = TOOLS[tool_id]
     typed = {f.key: units.from_metric(f.default, f.quantity, "us")
-             for f in found.inputs if not f.is_choice and f.default is not None}
-    metric, us = bridge.run(tool_id, {}), bridge.run(tool_id, typed, "us")
+             for f in found.inputs if not f.is_choice and f.default is not None
+             and found.uses(f, found.default_modes())}
+    metric, us = bridge.run(tool_id, {}, examples=True), bridge.run(tool_id, typed, "us", examples=True)
     assert us["ok"], us
     for o in found.outputs:
         if isinstance(metric["values"].get(o.key), float):
@@ -76,9 +78,9 @@ def test_us_units_round_trip(tool_id):
 
 
 def test_unknown_tool_and_unknown_input_are_errors():
-    assert bridge.run("no-such-tool", {})["errors"][0]["field"] == "tool"
+    assert bridge.run("no-such-tool", {}, examples=True)["errors"][0]["field"] == "tool"
     first = sorted(TOOLS)[0]
-    assert bridge.run(first, {"bogus": 1})["errors"][0]["field"] == "bogus"
+    assert bridge.run(first, {"bogus": 1}, examples=True)["errors"][0]["field"] == "bogus"
 
 
 def test_run_json_survives_garbage():

@@ -51,7 +51,7 @@ def test_any_input_gives_an_answer_or_named_errors(tool_id):
     @settings(max_examples=150, deadline=None)
     @given(_inputs_strategy(found))
     def check(inputs):
-        answer = bridge.run(tool_id, inputs)
+        answer = bridge.run(tool_id, inputs, examples=True)
         assert "bug" not in answer, answer.get("bug")
         if answer["ok"]:
             assert _all_finite(answer["values"])

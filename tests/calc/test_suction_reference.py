@@ -58,7 +58,7 @@ def test_cold_start_with_laminar_fittings():
     # The case of the engineering review: a sharp entry, two elbows and a gate valve at -5 degC
     # (strainer held constant) come to about 0.71 bar absolute, below the pump's 0.8: act.
     answer = bridge.run("suction-check", {"entry": "sharp", "elbows_90": 2, "suction_valve": "full_bore",
-                                          "strainer_model": "constant", "temp_cold": -5})
+                                          "strainer_model": "constant", "temp_cold": -5}, examples=True)
     assert answer["ok"]
     assert answer["values"]["p_inlet_cold"] == pytest.approx(_inlet_by_fluids(-5.0), abs=1e-9)
     assert answer["values"]["p_inlet_cold"] == pytest.approx(0.71, abs=0.01)
@@ -71,14 +71,14 @@ def test_cold_start_with_laminar_fittings():
 
 
 def test_warm_inlet_against_fluids():
-    answer = bridge.run("suction-check", {"suction_valve": "full_bore", "strainer_model": "constant"})
+    answer = bridge.run("suction-check", {"suction_valve": "full_bore", "strainer_model": "constant"}, examples=True)
     assert answer["values"]["p_inlet"] == pytest.approx(_inlet_by_fluids(50.0), abs=1e-9)
 
 
 def test_a_breaking_column_reports_no_pressure_and_the_temperature_it_needs():
     # Without the model's guard the balance gives about -7 bar absolute at -20 degC: no such
     # pressure exists; the pump cannot fill, and the tool says how warm the oil must be.
-    answer = bridge.run("suction-check", {"temp_cold": -20, "bypass": "no"})
+    answer = bridge.run("suction-check", {"temp_cold": -20, "bypass": "no"}, examples=True)
     assert answer["values"]["p_inlet_cold"] is None
     assert answer["values"]["margin_cold"] is None
     cold = answer["verdicts"][-1]
@@ -89,9 +89,9 @@ def test_a_breaking_column_reports_no_pressure_and_the_temperature_it_needs():
 def test_which_strainer_assumption_decides_is_said():
     # With no bypass the viscous strainer's cold drop alone breaks the column at 0 degC; a
     # bypass at 0.2 bar (common practice) would hold it there and change the verdict.
-    answer = bridge.run("suction-check", {"temp_cold": 0, "bypass": "no"})
+    answer = bridge.run("suction-check", {"temp_cold": 0, "bypass": "no"}, examples=True)
     notes = " ".join(answer["notes"])
     assert "The strainer decides the cold-start verdict" in notes
-    with_bypass = bridge.run("suction-check", {"temp_cold": 0, "bypass": "yes"})
+    with_bypass = bridge.run("suction-check", {"temp_cold": 0, "bypass": "yes"}, examples=True)
     assert with_bypass["values"]["strainer_cold"] == pytest.approx(0.2)
     assert with_bypass["values"]["p_inlet_cold"] is not None

@@ -81,8 +81,8 @@ def test_limits_out_of_order_are_refused():
 
 
 def test_bridge_us_units_convert_at_the_edge():
-    metric = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 60})
-    us = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 140}, "us")
+    metric = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 60}, examples=True)
+    us = bridge.run("viscosity-at-temperature", {"kv40": 46, "kv100": 6.8, "temp": 140}, "us", examples=True)
     assert us["values"]["kv"] == pytest.approx(metric["values"]["kv"])
     assert us["units"]["t_min"] == "°F"
     assert us["values"]["t_min"] == pytest.approx(metric["values"]["t_min"] * 1.8 + 32)
@@ -105,19 +105,19 @@ def test_higher_vi_is_thicker_when_hot_and_thinner_when_cold():
     # Definition of VI: at the same KV40, a higher VI oil thins less with temperature.
     def kv(vi, temp):
         return bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": "VG 46",
-                                                       "vi": vi, "temp": temp})["values"]["kv"]
+                                                       "vi": vi, "temp": temp}, examples=True)["values"]["kv"]
     assert kv(150, 80) > kv(100, 80)
     assert kv(150, 0) < kv(100, 0)
 
 
 def test_grade_too_thin_for_its_vi_names_the_vi():
     # VG 2 (mid-point 2.2 cSt) is below H = 6.394 cSt at KV100 2 cSt (D2270 Table 1): no VI 100.
-    answer = bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": "VG 2"})
+    answer = bridge.run("viscosity-at-temperature", {"oil_from": "grade", "grade": "VG 2"}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "vi"
 
 
 def test_two_reading_keys_are_unchanged():
     answer = bridge.run("viscosity-at-temperature", {"kv40": 46, "temp1": 40, "kv100": 6.8,
-                                                     "temp2": 100, "temp": 60})
+                                                     "temp2": 100, "temp": 60}, examples=True)
     assert answer["values"]["kv"] == pytest.approx(20.6, abs=0.05)
     assert "viscosity" in answer["charts"]

@@ -3,7 +3,7 @@
 import pytest
 
 hypothesis = pytest.importorskip("hypothesis")
-from hypothesis import given, settings, strategies as st  # noqa: E402
+from hypothesis import assume, given, settings, strategies as st  # noqa: E402
 
 from calc.methods.viscosity import kv40_from_reading  # noqa: E402
 from calc.methods.viscosity_index import kv100_from_vi, kv40_from_vi, viscosity_index  # noqa: E402
@@ -39,7 +39,9 @@ def test_thicker_at_40c_means_lower_vi(kv100, factor):
 @given(st.floats(min_value=10.0, max_value=1000.0), st.floats(min_value=80.0, max_value=200.0),
        st.floats(min_value=-20.0, max_value=140.0))
 def test_trace_back_round_trip(kv40, vi, temp):
-    # A reading on the oil's own D341 line traces back to that oil's KV40.
+    # A reading on the oil's own D341 line traces back to that oil's KV40 (away from
+    # D2270's seam at KV100 = 70 cSt, where two oils can share one VI, as above).
     kv100 = kv100_from_vi(kv40, vi)
+    assume(abs(kv100 - 70.0) > 0.1)
     reading = walther_viscosity(temp, *walther_fit(40.0, kv40, 100.0, kv100))
     assert kv40_from_reading(reading, temp, vi)[0] == pytest.approx(kv40, rel=1e-7)

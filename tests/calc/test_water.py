@@ -168,16 +168,16 @@ def test_bad_calibration_names_the_field(cal, field):
 
 
 def test_bridge_names_the_field_of_a_bad_reading():
-    answer = bridge.run("water-in-oil", {"rh": "120"})
+    answer = bridge.run("water-in-oil", {"rh": "120"}, examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "rh"
 
 
 def test_bridge_us_units():
     # Lab reading at 104 degF (40 degC) in a 52.8 US gal (200 L) tank: same ppm, mL as US fl oz.
-    metric = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 300, "temp": 40})
+    metric = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 300, "temp": 40}, examples=True)
     us = bridge.run("water-in-oil", {"reading": "ppm", "ppm": 300, "temp": 104,
                                      "oil_volume": 200 / 3.785411784, "temp_cold": 59,
-                                     "density": 870 / 16.01846337}, "us")
+                                     "density": 870 / 16.01846337}, "us", examples=True)
     assert us["values"]["ppm"] == pytest.approx(300.0)
     assert us["values"]["sat"] == pytest.approx(metric["values"]["sat"])
     assert us["units"]["water_ml"] == "US fl oz"
@@ -201,5 +201,5 @@ def test_chart_is_a_self_describing_svg():
             assert svg.startswith("<svg") and "<title>" in svg and "<desc>" in svg
             assert "style=" not in svg and "nan" not in svg.lower() and "inf" not in svg.lower()
     # 50 degC = 122 degF (NIST SP 811, B.9); water stays in ppm.
-    us = bridge.run("water-in-oil", {}, "us")["charts"]["saturation"]
+    us = bridge.run("water-in-oil", {}, "us", examples=True)["charts"]["saturation"]
     assert "held at 122.0 °F" in us and "Oil temperature, °F" in us and "°C" not in us
