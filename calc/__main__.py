@@ -113,9 +113,12 @@ def main(argv: list[str] | None = None) -> int:
     inputs, bad = {}, []
     for pair in args.pairs:
         key, sep, value = pair.partition("=")
+        key = key.strip()
         if not sep or not key:
-            bad.append({"field": pair, "message": "arguments are key=value"})
-        inputs[key.strip()] = value
+            bad.append({"field": pair[:40], "message": "arguments are key=value"})
+        elif key in inputs:
+            bad.append({"field": key, "message": "is given twice: give it once"})
+        inputs[key] = value
     machine = _machine(args.machine, args.units, bad) if args.command == "run" else None
     if bad:
         answer = {"tool": args.tool, "ok": False, "errors": bad}

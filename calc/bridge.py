@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import hashlib
 import json
+import re
 import traceback
 from datetime import datetime
 
@@ -97,11 +98,55 @@ def reexpress(tool_id: str, inputs: dict, from_system: str, to_system: str) -> d
     return shown
 
 
+# Deeper than this is no request of the page's: refused before the parser, whose recursion
+# would overflow the much smaller stack of the interpreter in the browser.
+REQUEST_DEPTH_MAX = 32
+
+
+_STRINGS = re.compile(r'"(?:[^"\\]|\\.)*"')
+_NOT_BRACKETS = re.compile(r"[^\[\]{}]+")
+
+
+def _depth(text: str) -> int:
+    """The deepest nesting of [ and { in JSON text, outside strings (the strings and all
+    but the brackets dropped by regular expressions first: a large request stays cheap).
+
+    >>> _depth('{"a": [1, {"b": "[[["}]}'), _depth("[" * 5)
+    (3, 5)
+    """
+    depth = deepest = 0
+    for char in _NOT_BRACKETS.sub("", _STRINGS.sub("", text)):
+        depth += 1 if char in "[{" else -1
+        deepest = max(deepest, depth)
+    return deepest
+
+
+def _request(request: str) -> tuple[dict | None, dict | None]:
+    """(the request object, None) or (None, the error answer): any text at all, however
+    deep or malformed, gives one or the other."""
+    if not isinstance(request, str) or (
+            request.count("[") + request.count("{") > REQUEST_DEPTH_MAX
+            and _depth(request) > REQUEST_DEPTH_MAX):
+        return None, {"ok": False, "errors": [{"field": "request",
+                                               "message": "nested too deeply, or not text"}]}
+    try:
+        message = json.loads(request)
+    except (ValueError, RecursionError, TypeError) as err:
+        text = "nested too deeply" if isinstance(err, RecursionError) else str(err)[:200]
+        return None, {"ok": False, "errors": [{"field": "request", "message": text}]}
+    if not isinstance(message, dict):
+        return None, {"ok": False, "errors": [{"field": "request", "message": "must be an object"}]}
+    return message, None
+
+
 def reexpress_json(request: str) -> str:
     """The worker's entry for a unit switch: {tool, inputs, from, to} -> {key: text}."""
-    message = json.loads(request)
+    message, bad = _request(request)
+    if bad:
+        return json.dumps({"errors": bad["errors"]})
+    inputs = message.get("inputs")
     try:
-        return json.dumps(reexpress(message["tool"], message.get("inputs") or {},
+        return json.dumps(reexpress(str(message.get("tool")), inputs if isinstance(inputs, dict) else {},
                                     message.get("from"), message.get("to")), ensure_ascii=False)
     except InputError as err:
         return json.dumps({"errors": err.as_list(_shower(message.get("to")))})
@@ -109,13 +154,9 @@ def reexpress_json(request: str) -> str:
 
 def run_json(request: str) -> str:
     """The worker's entry point: one JSON request string in, one JSON answer string out."""
-    try:
-        message = json.loads(request)
-        if not isinstance(message, dict):
-            raise ValueError("request must be an object")
-    except ValueError as err:
-        return json.dumps({"tool": None, "ok": False,
-                           "errors": [{"field": "request", "message": str(err)}]})
+    message, bad = _request(request)
+    if bad:
+        return json.dumps({"tool": None, **bad})
     inputs = message.get("inputs")
     answer = run(str(message.get("tool")), inputs if isinstance(inputs, dict) else {},
                  str(message.get("units") or "metric"), message.get("examples") is True)
@@ -150,13 +191,9 @@ def machines_json(request: str) -> str:
     """The worker's entry for the machine kit: one JSON request {"op", ...} in, one JSON
     answer out (calc.machines.api lists the ops). Never raises: a fault of calc's own is
     an answer with a bug report, as in `run`."""
-    try:
-        message = json.loads(request)
-    except ValueError as err:
-        return json.dumps({"ok": False, "errors": [{"field": "request", "message": str(err)}]})
-    if not isinstance(message, dict):
-        return json.dumps({"ok": False, "errors": [{"field": "request",
-                                                    "message": "must be an object"}]})
+    message, bad = _request(request)
+    if bad:
+        return json.dumps(bad)
     return json.dumps(_machine_call(message), ensure_ascii=False)
 
 

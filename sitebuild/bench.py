@@ -72,6 +72,8 @@ SNAPSHOT_FILES = ("snapshot.bin",)
 # selector of the timed output (the bare page has none).
 INIT_SCRIPT = """
 window.__answerAt = null;
+const seed = %s;  // the timed form as a technician left it (restored on load, as typed)
+if (seed && location.pathname.indexOf("bare") < 0) localStorage.setItem(seed.key, JSON.stringify(seed.kept));
 document.addEventListener("DOMContentLoaded", () => {
   const el = document.querySelector(%s) || document.getElementById("bare-out");
   if (!el) return;
@@ -151,7 +153,7 @@ def timed_tool() -> dict:
     values of that field that calc answers (checked here, natively), each answer differing
     from the one before, so every change shows a new answer."""
     from calc import bridge
-    from calc.kernel import registry
+    from calc.kernel import registry, units
 
     tool = next(iter(registry.of_kind("tool").values()))
     field = next(f for f in tool.inputs if not f.is_choice and f.default is not None)
@@ -168,11 +170,19 @@ def timed_tool() -> dict:
             last = answer["text"][out]
     if len(values) < 2:
         sys.exit(f"bench: {tool.id}.{field.key} gives fewer than two different answers near its default")
-    return {"tool": tool.id, "out": out, "field": field.key, "values": values}
+    # A form starts blank (calc's rule): the timed one is seeded with the tool's examples,
+    # as "Fill an example" types them, so the first answer shows as soon as calc is up.
+    examples = {f.key: units.format_input(float(f.default)) for f in tool.inputs
+                if f.is_number and f.default is not None and tool.uses(f, tool.default_modes())}
+    return {"tool": tool.id, "out": out, "field": field.key, "values": values,
+            "examples": examples}
 
 
 def init_script(timed: dict) -> str:
-    return INIT_SCRIPT % json.dumps(f'form[data-tool="{timed["tool"]}"] [data-out="{timed["out"]}"]')
+    seed = {"key": "sumpside.form." + timed["tool"],
+            "kept": {"units": "metric", "inputs": timed["examples"]}}
+    return INIT_SCRIPT % (json.dumps(seed),
+                          json.dumps(f'form[data-tool="{timed["tool"]}"] [data-out="{timed["out"]}"]'))
 
 
 def write_bare_page(target: Path, dist: Path) -> None:

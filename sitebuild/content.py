@@ -52,6 +52,13 @@ class InputView:
     checked: bool = False
     binds: str = ""  # the machine card field this input takes
     max_chars: int = 0  # a text field's most characters
+    group: str = "reading"  # reading, machine or limits (registry.GROUPS)
+    # A limit shows its standard value from the start; a reading or fact starts blank,
+    # its declared value only an example (registry: "what a blank field means").
+    start: str = "example"
+    when_key: str = ""  # the choice field whose value decides whether this one is used
+    when_values: str = ""  # those values, space-separated
+    signed: bool = False  # may be negative (a cold-start temperature): the form offers a minus
 
 
 # A text field allowed more than this many characters is a box of lines.
@@ -64,7 +71,11 @@ def input_view(f: registry.Field) -> InputView:
             f.quantity if f.quantity == "date" else
             ("longtext" if (f.max or registry.TEXT_MAX_CHARS) > LONG_TEXT_CHARS else "text")
             if f.is_text else "number")
-    view = InputView(f.key, f.label, kind, f.help, optional=f.optional, binds=f.binds or "")
+    view = InputView(f.key, f.label, kind, f.help, optional=f.optional, binds=f.binds or "",
+                     group=f.group, start="standard" if f.blank_takes_default else "example",
+                     when_key=f.when[0] if f.when else "",
+                     when_values=" ".join(f.when[1]) if f.when else "",
+                     signed=f.is_number and (f.min is None or f.min < 0.0))
     if f.is_flag:
         view.checked = bool(f.default)
     elif f.is_choice:
@@ -97,6 +108,7 @@ class ToolView:
     inputs: list[InputView]
     outputs: list[dict]
     help_html: str
+    words: str = ""  # the search index: every word of its title, summary and help, once
 
 
 @dataclass
@@ -143,9 +155,18 @@ def tool_view(found: registry.Tool, help_dir: Path) -> ToolView:
     outputs = [{"key": o.key, "label": o.label, "help": o.help,
                 "unit_metric": units.unit_label(o.quantity, "metric"),
                 "unit_us": units.unit_label(o.quantity, "us")} for o in found.outputs]
+    help_html = render_markdown(help_file.read_text(encoding="utf-8")) if help_file.exists() else ""
+    extra = " ".join([c.title for c in found.causes] + [f.label for f in found.inputs])
     return ToolView(found.id, found.kind, found.title, found.summary, found.topic.title, inputs,
-                    outputs,
-                    render_markdown(help_file.read_text(encoding="utf-8")) if help_file.exists() else "")
+                    outputs, help_html,
+                    search_words(found.title, found.summary, extra, re.sub(r"<[^>]+>", " ", help_html)))
+
+
+def search_words(*texts: str) -> str:
+    """The home page's search index of a tool: its words, lower case, each once, in order
+    (the page finds a tool by any word of its title, summary, fields or help, offline)."""
+    words = re.findall(r"[\w°µ]+", " ".join(texts).casefold())
+    return " ".join(dict.fromkeys(w for w in words if len(w) > 1 or w.isdigit()))
 
 
 _SECTION = re.compile(r"^##\s*\{#(?P<key>[a-z0-9-]+)\}\s*$")

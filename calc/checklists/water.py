@@ -105,6 +105,9 @@ SYMPTOMS = (
 WATCH_PPM = 200.0
 ACT_PPM = 500.0
 LARGE_PPM = 1000.0
+# A sensor's % saturation and a lab's ppm of one oil disagree past this many points of
+# saturation (common practice: sensors read to about ±3 %, saturation lines to ±25 %).
+INCONSISTENT_POINTS = 30.0
 # Common practice: in-line sensors; above 80 % saturation free water is near, at 100 % present.
 WATCH_SATURATION_PCT = 80.0
 FREE_SATURATION_PCT = 100.0
@@ -170,6 +173,17 @@ def checklist_water(board: Scoreboard, found: Result, ppm, rh, temp, oil, cal_te
     if rh is None and ppm is not None and temp is not None:
         line = water.saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
         saturation = relative_saturation_pct(ppm, temp, line.a, line.b)
+    elif rh is not None and ppm is not None and temp is not None:
+        # Both readings of one oil at one temperature: they should tell the same story.
+        line = water.saturation_line(oil, cal_temp1, cal_ppm1, cal_temp2, cal_ppm2)
+        from_ppm = relative_saturation_pct(ppm, temp, line.a, line.b)
+        if abs(from_ppm - rh) > INCONSISTENT_POINTS:
+            found.note("The two water readings disagree: the lab's {ppm} is {from_ppm} of "
+                       "saturation at {temp} for this oil, the sensor says {rh}. Check the "
+                       "sensor's calibration, when and where each sample was taken, and the oil "
+                       "type (or its own calibration) before trusting either.",
+                       ppm=Q(ppm, "ppm"), from_ppm=Q(from_ppm, "percent"), temp=Q(temp, "temperature"),
+                       rh=Q(rh, "percent"))
     found.values["saturation"] = saturation
     if ppm is not None:
         if ppm >= LARGE_PPM:

@@ -7,7 +7,7 @@ machine records (a stored reading answered again).
 from __future__ import annotations
 
 from . import units
-from .registry import Tool
+from .registry import Tool, get
 from .result import Result
 
 
@@ -40,6 +40,8 @@ def present(found: Tool, result: Result, system: str) -> dict:
         "notices": [{"field": key, "message": n.render(show)} for key, n in result.notices],
         "sources": list(result.sources),
         "charts": {name: draw(system) for name, draw in result.charts.items()},
-        "ranked": [{"key": c.key, "title": c.title, "score": c.score,
+        "related": [{"tool": other, "title": get(other).title, "why": why}
+                    for other, why in found.related],
+        "ranked": [{"key": c.key, "title": c.title, "score": c.score, "word": c.word,
                     "reasons": [r.render(show) for r in c.reasons]} for c in result.ranked],
     }

@@ -269,7 +269,18 @@ class Field:
         if self.is_text:
             return self.parse_text(raw)
         value = units.to_metric(units.parse_number(raw, self.key), self.quantity, system)
+        value = self.at_shown_limit(value, system)
         self.check_range(value, system)
+        return value
+
+    def at_shown_limit(self, value: float, system: str) -> float:
+        """A value just past a limit that reads the same as the limit in `system` (the limit
+        as a message shows it, rounded: 264 000 US gal for 1 000 000 L) is the limit itself:
+        limits are compared before rounding, so the figure the form shows is accepted."""
+        for limit, past in ((self.min, lambda: value < self.min), (self.max, lambda: value > self.max)):
+            if limit is not None and past() and (units.show_number(value, self.quantity, system)
+                                                 == units.show_number(limit, self.quantity, system)):
+                return float(limit)
         return value
 
     def parse_text(self, raw: object) -> str:
@@ -464,6 +475,9 @@ class Tool:
     retired: tuple[tuple[str, str], ...] = ()
     # Input keys that were renamed, each with its new key: the old key still works.
     renamed: tuple[tuple[str, str], ...] = ()
+    # Tools that answer a neighbouring question, each with why and which governs (one answer
+    # per question: where two tools weigh the same decision, each says so and links the other).
+    related: tuple[tuple[str, str], ...] = ()
 
     def field(self, key: str) -> Field:
         for f in self.inputs:
@@ -502,6 +516,14 @@ class Tool:
         metric = {k: facts[self.field(k).binds] for k in from_card if k not in chosen}
         values = self._parse(raw, system, metric, errors, chosen, examples, notices)
         return Parsed(values, [f.key for f in self.inputs if f.key in from_card], notices)
+
+    def without_unused(self, raw: dict) -> dict:
+        """`raw` without the inputs its own modes (as typed, else their defaults) do not use:
+        a form of an earlier build sent every field, used or not."""
+        modes = {key: str(raw.get(key) or "").strip() or default
+                 for key, default in self.default_modes().items()}
+        return {k: v for k, v in raw.items()
+                if not any(f.key == k and not self.uses(f, modes) for f in self.inputs)}
 
     def default_modes(self) -> dict:
         """{mode key: its default choice}: the modes a form starts in."""
@@ -647,6 +669,7 @@ class Tool:
             "topic": self.topic.title, "kind": self.kind,
             "inputs": [f.describe(system) for f in self.inputs],
             "modes": sorted({f.when[0] for f in self.inputs if f.when}),
+            "related": [{"tool": other, "why": why} for other, why in self.related],
             "outputs": [o.describe(system) for o in self.outputs],
         }
 
@@ -706,18 +729,21 @@ def register(found: Tool) -> None:
 
 def tool(tool_id: str, *, title: str, summary: str, topic: Topic,
          inputs: tuple[Field, ...], outputs: tuple[Output, ...],
-         retired: dict[str, str] | None = None, renamed: dict[str, str] | None = None):
+         retired: dict[str, str] | None = None, renamed: dict[str, str] | None = None,
+         related: dict[str, str] | None = None):
     """Declare the decorated function as the tool `tool_id`; its parameters are the inputs.
 
     `retired` names input keys the tool no longer takes, each with what to type instead;
     `renamed` maps old input keys to their new ones (a saved reading or a script that uses
-    an old key keeps working).
+    an old key keeps working); `related` maps the ids of tools that weigh the same decision
+    to a sentence on which one governs and why.
     """
     def declare(fn: Callable[..., Result]) -> Callable[..., Result]:
         check_signature(tool_id, fn, [f.key for f in inputs])
         register(Tool(tool_id, title, summary, topic, tuple(inputs), tuple(outputs), fn,
                       retired=tuple((retired or {}).items()),
-                      renamed=tuple((renamed or {}).items())))
+                      renamed=tuple((renamed or {}).items()),
+                      related=tuple((related or {}).items())))
         return fn
 
     return declare

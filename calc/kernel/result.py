@@ -18,6 +18,7 @@ Verdicts come from grading a value against its bands (`calc.kernel.grading`):
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 from typing import Callable, NamedTuple
 
@@ -72,6 +73,22 @@ def verdict(level: str, basis: str, template: str, /, *args: Q, **named: Q) -> V
     return Verdict(level, text(template, *args, **named), basis)
 
 
+# How a cause's score reads in words (calc.checklists.scoreboard gives the points: 3 for a
+# reading past its limit or a sign that points to one cause, 2 for a sign that points mainly
+# to it, 1 for a shared sign, -2 against). No points is no evidence, never "likely".
+SCORE_WORDS = ((5.0, "strong evidence"), (3.0, "likely"), (1.0, "possible"),
+               (-math.inf, "no evidence yet"))
+
+
+def score_word(score: float) -> str:
+    """The words for a cause's score.
+
+    >>> [score_word(s) for s in (0.0, 1.0, 2.0, 3.0, 6.0, -2.0)]
+    ['no evidence yet', 'possible', 'possible', 'likely', 'strong evidence', 'no evidence yet']
+    """
+    return next(word for least, word in SCORE_WORDS if score >= least)
+
+
 @dataclass(frozen=True)
 class RankedCause:
     """One cause in a troubleshooting ranking, with its points and the reasons for them."""
@@ -80,6 +97,10 @@ class RankedCause:
     title: str
     score: float
     reasons: tuple[Text, ...] = ()
+
+    @property
+    def word(self) -> str:
+        return score_word(self.score)
 
 
 @dataclass

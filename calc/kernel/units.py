@@ -16,6 +16,7 @@ nowhere else.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 from typing import Callable
 
@@ -149,24 +150,44 @@ def unit_label(quantity_name: str, system: str) -> str:
     return quantity(quantity_name).unit(system)
 
 
+# A lone comma, three digits after it, a whole part of 1 to 3 digits not starting with 0.
+_AMBIGUOUS = re.compile(r"(-?[1-9]\d{0,2}),(\d{3})")
+
+
 def parse_number(text: object, field: str) -> float:
     """A finite number from what a person typed.
 
-    Accepts "46.5", "46,5", " 1 200 ", "1,200.5", "1.200,5", "-5", "1e3".
-    Raises InputError naming `field` for anything else.
+    Accepts "46.5", "46,5", " 1 200 ", "1,200.5", "1.200,5", "-5", "1e3", "0,125". A dot
+    alone is always the decimal mark ("1.013" bar). Refuses "1,200": a thousand two hundred
+    in some countries, one point two in others (a lone comma with three digits after it and
+    a whole part that is not 0). Raises InputError naming `field` for anything else.
 
     >>> parse_number("1.200,5", "volume")
     1200.5
+    >>> parse_number("1,200", "volume")
+    Traceback (most recent call last):
+    ...
+    calc.kernel.errors.InputError: volume: '1,200' could be 1200 or 1.2: type 1200, or 1.2 (no thousands separator)
     """
     if isinstance(text, bool):
         raise InputError(field, "must be a number")
     if isinstance(text, (int, float)):
-        value = float(text)
+        try:
+            value = float(text)
+        except OverflowError:
+            raise InputError(field, "is far too large a number") from None
     else:
         raw = str(text).strip().replace("\u2212", "-").replace("\u00a0", "").replace(" ", "")
         raw = raw.replace("_", "")
         if not raw:
             raise InputError(field, "is empty: enter a number")
+        ambiguous = _AMBIGUOUS.fullmatch(raw)
+        if ambiguous:
+            whole, part = ambiguous.group(1), ambiguous.group(2)
+            raise InputError(field, "{typed} could be {thousands} or {decimal}: type {thousands}, "
+                             "or {decimal} (no thousands separator)", typed=typed(text),
+                             thousands=Q(whole + part, "text"),
+                             decimal=Q(f"{whole}.{part}".rstrip("0").rstrip("."), "text"))
         if "," in raw and "." in raw:
             # The later separator is the decimal mark, the other groups thousands.
             if raw.rfind(",") > raw.rfind("."):

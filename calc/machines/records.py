@@ -236,8 +236,11 @@ def _migrated(entry: dict, machine: dict | None) -> dict:
     inputs = entry.get("inputs") if isinstance(entry.get("inputs"), dict) else {}
     stamp = str(entry["at"]).replace("Z", "+00:00")
     try:
-        # A blank field of the earlier log computed with the tool's default: so it does here.
-        made = new_reading(str(entry.get("tool")), inputs, system, None, stamp, examples=True)
+        # A blank field of the earlier log computed with the tool's default: so it does here;
+        # its form sent every field, also those its mode did not use.
+        found = registry.get(str(entry.get("tool")))
+        made = new_reading(found.id, found.without_unused(inputs), system, None, stamp,
+                           examples=True)
         record = made["record"]
         record["machine"] = machine["id"] if machine else None
         record["migrated"] = True

@@ -106,7 +106,7 @@ def _reading(shown: dict) -> dict:
         "outputs": [{"label": o["label"], "text": o["text"]} for o in shown["outputs"]
                     if o["text"] != "n/a" and (o["headline"] or o["tracks"])],
         "verdicts": [{"level": v["level"], "message": v["message"]} for v in shown["verdicts"]],
-        "causes": [{"title": c["title"], "reasons": c["reasons"]}
+        "causes": [{"title": c["title"], "word": c["word"], "reasons": c["reasons"]}
                    for c in shown.get("ranked", []) if c["score"] > 0],
     }
 

@@ -259,6 +259,14 @@ def oxidation_trend(new_value: float, reserve_before: float, reserve_now: float,
     """Straight-line extrapolation of the oxidation reserve to the watch and condemning levels."""
     if watch_pct <= limit_pct:
         raise InputError("watch_pct", "the watch level must be above the condemning limit")
+    # A reserve is what is left of the new oil's: a reading well above the new oil's is a
+    # mistyped figure or the wrong new-oil value (10 % over allows for the test's repeatability,
+    # common practice).
+    for key, reading in (("reserve_before", reserve_before), ("reserve_now", reserve_now)):
+        if reading > 1.1 * new_value:
+            raise InputError(key, "{reading} is more than the new oil's {new}: an oxidation "
+                             "reserve only falls; check this reading and the new oil's value",
+                             reading=Q(reading, "ratio"), new=Q(new_value, "ratio"))
     # Rounded to 1e-9 % so that a reading exactly on a limit stays on it.
     now_pct = round(reserve_now / new_value * 100.0, 9)
     before_pct = round(reserve_before / new_value * 100.0, 9)

@@ -245,6 +245,12 @@ def filter_beta(beta: float, upstream: float, downstream: float | None = None) -
                                            "check the count after the filter")
         values["beta_measured"] = measured
         values["efficiency_measured"] = beta_efficiency_pct(measured) if measured >= 1.0 else None
+        if measured < 1.0:
+            result.note("More particles after the filter than before it ({after} against "
+                        "{before}): the filter cannot add dirt, so the element is bypassing or "
+                        "torn, a sample was taken dirty, or the two counts are swapped; take "
+                        "both samples again before acting on this ratio.",
+                        after=Q(downstream, "per_ml"), before=Q(upstream, "per_ml"))
         result.grade(measured, BETA_BANDS, COMMON_PRACTICE, measured=Q(measured, "ratio"),
                      rated=Q(beta, "ratio"))
     result.note("Stop the machine, relieve pressure and lock out before changing an element; "

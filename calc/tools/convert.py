@@ -56,7 +56,12 @@ def _check_value(value: float, unit: str, temp_f: float) -> None:
             raise InputError("value", "is at or below absolute zero ({zero})",
                              zero=Q(ABSOLUTE_ZERO_C, "temperature"))
     elif kind == "pressure":
-        return  # gauge pressures below atmospheric are negative
+        # Gauge pressures below atmospheric are negative, down to a full vacuum at most.
+        vacuum = -STANDARD_ATMOSPHERE_BAR / _FACTOR[unit]
+        if value < vacuum * (1.0 + 1e-9):
+            shown = f"{units.format_number(vacuum, 4)} {_LABELS[unit].split(' ')[0]}"
+            raise InputError("value", "is below a full vacuum ({vacuum} gauge): a gauge pressure "
+                             "is at least minus one atmosphere", vacuum=Q(shown, "text"))
     elif value < 0:
         raise InputError("value", "a {kind} cannot be negative", kind=Q(kind, "text"))
     elif unit in _SUS_TEMP_F:
@@ -131,7 +136,7 @@ def _plain(value: float) -> str:
         Field("from_unit", "From", "choice", "cst", choices=UNIT_CHOICES),
         Field("to_unit", "To", "choice", "sus_100f", choices=UNIT_CHOICES),
         Field("temp", "Temperature of the Saybolt reading", "temperature", 37.77777777777778,
-              min=-20.0, max=200.0, help="Only for “SUS at the temperature entered”."),
+              min=-20.0, max=200.0, help="Only for “SUS at the temperature entered”.", group="limits"),
     ),
     outputs=(
         Output("converted", "Converted value", "ratio", "In the unit picked under “To”."),

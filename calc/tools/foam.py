@@ -306,6 +306,14 @@ def foam_air_tests(grade: str, air_release: float | None = None,
         raise InputError("limit_air_release", "must be more than 0 minutes")
     own = any(o is not None for o in overrides)
     basis = "the oil's specification as entered" if own else LIMITS_BASIS
+    for n, (made, left) in enumerate(((seq1_tendency, seq1_stability), (seq2_tendency, seq2_stability),
+                                      (seq3_tendency, seq3_stability)), 1):
+        # ASTM D892: stability is what still stands 10 min after the blowing stopped.
+        if made is not None and left is not None and left > made:
+            raise InputError(f"seq{n}_stability", "the foam still standing after the rest "
+                             "({left}) cannot be more than the foam the blowing made ({made}): "
+                             "check the two figures of the report",
+                             left=Q(left, "foam_ml"), made=Q(made, "foam_ml"))
     sequences = foam_sequences((seq1_tendency, seq1_stability), (seq2_tendency, seq2_stability),
                                (seq3_tendency, seq3_stability), limits)
     patterns = foam_patterns(sequences, air_release, limits, machine_foams)

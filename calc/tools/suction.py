@@ -190,6 +190,9 @@ def _count(key: str, label: str, default: float) -> Field:
                       "bends_90, elbows_45, tees, valve), so their losses can grow in cold, "
                       "laminar flow",
              "strainer_bypass": "use bypass=yes or no, and bypass_opens for its pressure"},
+    related={"viscosity-at-temperature": "Its start-up temperature is the pump's viscosity "
+             "limit alone, without the suction line: this check's is usually warmer, and the "
+             "warmer of the two governs a cold start."},
 )
 def suction_check(pump_flow: float, suction_bore: float, suction_length: float,
                   roughness: float, suction_head: float, entry: str, elbows_90: float,

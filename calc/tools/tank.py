@@ -172,6 +172,8 @@ LEVEL_NEEDED_BANDS = (
             "it against its air-release time, at the working level and at the low level.",
     topic=TANK,
     renamed={"flow": "pump_flow"},
+    related={"foam-air-tests": "The oil's air-release time from its lab report: the dwell "
+             "against it governs this tank's verdict over the minutes-of-flow rule of thumb."},
     retired={"working_level": "give the oil at the working level as oil_volume (the "
                               "tank-volume tool turns a level into a volume)",
              "low_level": "give the oil at the lowest level as low_oil_volume"},
@@ -238,9 +240,12 @@ def tank_sizing(tank_volume: float, pump_flow: float, application: str, oil_volu
               "level_needed": level_needed if level_needed <= 100.0 else None,
               "tank_needed": needed}
     result = Result(values=values)
-    result.grade(flow_minutes, FLOW_MINUTES_BANDS, COMMON_PRACTICE, minutes=Q(flow_minutes, _MIN),
-                 low=Q(lo_min, _MIN), high=Q(hi_min, _MIN), needed=Q(needed, _V))
-    _grade_dwell(result, "working level", dwell, air_release)
+    minutes = result.grade(flow_minutes, FLOW_MINUTES_BANDS, COMMON_PRACTICE,
+                           minutes=Q(flow_minutes, _MIN), low=Q(lo_min, _MIN),
+                           high=Q(hi_min, _MIN), needed=Q(needed, _V))
+    dwelt = _grade_dwell(result, "working level", dwell, air_release)
+    if minutes is not None and dwelt is not None:
+        _rule_of_thumb_gives_way(result, flow_minutes, lo_min, hi_min)
     if low_level is not None:
         low_dwell = dwell_minutes(low_oil_volume, flow)
         values.update(low_dwell=low_dwell, low_ratio=low_dwell / air_release)
@@ -270,8 +275,23 @@ def tank_sizing(tank_volume: float, pump_flow: float, application: str, oil_volu
     return result
 
 
-def _grade_dwell(result: Result, where: str, dwell: float, air_release: float) -> None:
-    result.grade(dwell, DWELL_BANDS, COMMON_PRACTICE, where=Q(where, "text"), dwell=Q(dwell, _MIN),
+def _rule_of_thumb_gives_way(result: Result, flow_minutes: float, low: float,
+                             high: float) -> None:
+    """One answer per question: where the dwell against the oil's own air-release time
+    finds fault, a minutes-of-flow "ok" (a rule of thumb) does not stand beside it as a
+    verdict; it is said as a note that the dwell governs."""
+    minutes, dwell = result.verdicts[-2], result.verdicts[-1]
+    if minutes.level != "ok" or dwell.level == "ok":
+        return
+    result.verdicts.remove(minutes)
+    result.note("The tank holds {minutes} of pump flow, within the usual {low} to {high} (a rule "
+                "of thumb), but the oil's own air-release time against its dwell governs the "
+                "verdict here.", minutes=Q(flow_minutes, _MIN), low=Q(low, _MIN),
+                high=Q(high, _MIN))
+
+
+def _grade_dwell(result: Result, where: str, dwell: float, air_release: float) -> Band | None:
+    return result.grade(dwell, DWELL_BANDS, COMMON_PRACTICE, where=Q(where, "text"), dwell=Q(dwell, _MIN),
                  air_release=Q(air_release, _MIN),
                  ok_dwell=Q(DWELL_OK_RATIO * air_release, _MIN),
                  act_dwell=Q(DWELL_ACT_RATIO * air_release, _MIN))

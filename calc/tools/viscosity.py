@@ -241,6 +241,9 @@ def note_preset_limits(result: Result, *limits: float | None) -> None:
         Output("kv40_used", "KV at 40 °C of the oil's line", _KV),
         Output("kv100_used", "KV at 100 °C of the oil's line", _KV),
     ),
+    related={"suction-check": "Its cold-start temperature adds the suction line's losses and "
+             "the pump's minimum inlet pressure to the viscosity limit used here, so it is "
+             "usually warmer: the warmer of the two governs a cold start."},
 )
 def viscosity_at_temperature(kv40: float, temp1: float, kv100: float, temp2: float, temp: float,
                              pump: str, visc_start: float | None = None,

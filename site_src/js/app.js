@@ -6,6 +6,7 @@ import { showStatus } from "./status.js";
 import { startUnits, currentUnits } from "./units.js";
 import { computeVisible, startForms } from "./forms.js";
 import { showBackLink, showReadings, startChecklists } from "./checklists.js";
+import { startFinder, used } from "./finder.js";
 import { renderLog, startLog } from "./log-view.js";
 import { startBugReports } from "./bug-reports.js";
 import { migrateOldLog, onKitChange, startKit } from "./kit.js";
@@ -34,10 +35,25 @@ const DRAW = {
 
 async function showView(view, param) {
   DRAW[view.dataset.view]?.(param);
+  if (view.dataset.view.startsWith("tool/")) used(view.dataset.view.slice(5));
   if (view.classList.contains("tool")) showBackLink(view);
   if (view.classList.contains("checklist")) showReadings(view);
   if (view.querySelector("form[data-tool]") && document.documentElement.dataset.ready) await fillVisible();
   computeVisible();
+}
+
+// The answer bar of a form sticks just under the top bar, whatever height the top bar wraps to
+// (a rule of the page's own style sheet: no style attribute, as the CSP wants).
+function keepBarHeight() {
+  const bar = document.querySelector("header.bar");
+  const sheet = [...document.styleSheets].find((s) => s.href && s.href.endsWith("/css/app.css"));
+  if (!sheet) return;
+  const at = sheet.insertRule(":root { --head-h: 3.6rem; }", sheet.cssRules.length);
+  const set = () => sheet.cssRules[at].style.setProperty("--head-h",
+    getComputedStyle(bar).position === "sticky" ? bar.offsetHeight + "px" : "0px");
+  new ResizeObserver(set).observe(bar);
+  window.addEventListener("resize", set);
+  set();
 }
 
 async function ready() {
@@ -62,6 +78,8 @@ startUnits(calculator, async () => {
 });
 startForms(calculator);
 startChecklists();
+startFinder();
+keepBarHeight();
 startLog();
 startBugReports();
 startMachines();

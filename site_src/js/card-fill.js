@@ -3,7 +3,7 @@
 // "Save to the card" beside it makes it the card's. With no machine, the tool's own defaults.
 import { ask, localStamp, saveMachine } from "./kit.js";
 import { currentMachine } from "./machine-pick.js";
-import { defaultOf, fieldOf } from "./fields.js";
+import { fieldOf, startOf } from "./fields.js";
 import { currentUnits } from "./units.js";
 
 const FROM_CARD = "from the card";
@@ -27,16 +27,20 @@ function setValue(el, value) {
   return true;
 }
 
-// The form as it is without a card: marks gone, the card's values back to the defaults.
+// The form as it is without a card: marks gone, the card's values cleared (limits back to
+// their standard values); the machine's facts unfolded, to be typed.
 function clearCard(form, units) {
   form.querySelector("[data-for-machine]").hidden = true;
+  const facts = form.querySelector('[data-group="machine"]');
+  if (facts) { facts.open = true; facts.querySelector("[data-group-note]").textContent = ""; }
+  delete form.dataset.foldedFor;
   for (const field of form.querySelectorAll("[data-bound]")) {
     const el = field.querySelector("[name]");
     if (el.dataset.fromCard) {
       delete el.dataset.fromCard;
       if (el.type === "checkbox") el.checked = el.defaultChecked;
       else if (el.tagName === "SELECT") el.value = [...el.options].find((o) => o.defaultSelected)?.value ?? el.value;
-      else el.value = defaultOf(el, units) ?? "";
+      else el.value = startOf(el, units);
     }
     mark(field, "");
   }
@@ -53,6 +57,13 @@ export async function fillForm(form) {
   const line = form.querySelector("[data-for-machine]");
   line.textContent = `For ${machine.card.name}: the marked fields are from its card.`;
   line.hidden = false;
+  const facts = form.querySelector('[data-group="machine"]');
+  const filledCount = Object.keys(filled.values).length;
+  if (facts && filledCount) { // filled from the card: folded away, one tap to look or change
+    if (form.dataset.foldedFor !== machine.id) facts.open = false; // once per machine chosen
+    form.dataset.foldedFor = machine.id;
+    facts.querySelector("[data-group-note]").textContent = `(${filledCount} from the card of ${machine.card.name})`;
+  }
   for (const field of form.querySelectorAll("[data-bound]")) {
     const el = field.querySelector("[name]");
     const value = filled.values[el.name];

@@ -1,7 +1,7 @@
 // The tool forms: each computes through the worker a short pause after typing, at once on
-// submit, and when its view is shown; only the newest answer of a form is shown. Reset, save
-// and print are the form's own buttons.
-import { keepForm, readInputs, resetForm, restoreForm } from "./fields.js";
+// submit, and when its view is shown; only the newest answer of a form is shown. Save, print,
+// "Fill an example" (or a checklist's Clear) with its undo, and the minus key are its buttons.
+import { clearForm, fillExample, flipSign, keepForm, readInputs, restoreForm, showModes } from "./fields.js";
 import { currentUnits } from "./units.js";
 import { showAnswer } from "./answers.js";
 import { answered } from "./checklists.js";
@@ -32,6 +32,23 @@ async function compute(form) {
     : await calculator.run(form.dataset.tool, asked.inputs, asked.units);
   if (form.dataset.seq !== String(seq)) return; // a newer request is on its way
   receive(form, answer, asked);
+  delete form.dataset.stale;
+}
+
+// Save only an answer to exactly what is in the form now: a pending computation runs first,
+// and a form with a field in error saves nothing (calc parses the saved inputs again too).
+async function saveNow(form, timer) {
+  clearTimeout(timer);
+  const saved = form.querySelector("[data-saved]");
+  if (!calculator || !root.dataset.ready) { saved.textContent = "Not saved: the calculator is still starting."; return; }
+  await compute(form);
+  const kept = lastAnswers.get(form);
+  const now = JSON.stringify(readInputs(form));
+  if (form.dataset.level === "error" || !kept || JSON.stringify(kept.inputs) !== now) {
+    saved.textContent = "Not saved: fix the marked fields first; nothing was stored.";
+    return;
+  }
+  await saveReading(form, kept);
 }
 
 // What a form does with the answer to `asked` ({inputs, units}): shows it; keeps the report of
@@ -52,6 +69,8 @@ function bindForm(form) {
   const saved = form.querySelector("[data-saved]");
   const soon = (event) => {
     if (event.type === "input") saved.textContent = ""; // a new reading is being typed
+    form.dataset.stale = "1"; // the answer shown is to the inputs before this change
+    if (event.type === "change") showModes(form);
     clearTimeout(timer);
     keepForm(form, currentUnits());
     timer = setTimeout(() => compute(form), DEBOUNCE_MS);
@@ -59,12 +78,18 @@ function bindForm(form) {
   form.addEventListener("input", soon);
   form.addEventListener("change", soon);
   form.addEventListener("submit", (event) => { event.preventDefault(); clearTimeout(timer); compute(form); });
-  form.querySelector('[data-action="reset"]')?.addEventListener("click", () => {
+  const rewrite = (change) => () => {
     clearTimeout(timer);
-    resetForm(form, currentUnits());
+    if (change(form, currentUnits())) saved.textContent = "";
     compute(form);
+  };
+  form.querySelector('[data-action="example"]')?.addEventListener("click", rewrite(fillExample));
+  form.querySelector('[data-action="reset"]')?.addEventListener("click", rewrite(clearForm));
+  form.addEventListener("click", (event) => {
+    const key = event.target.closest("[data-sign-for]");
+    if (key) flipSign(form.querySelector(`[name="${CSS.escape(key.dataset.signFor)}"]`));
   });
-  form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveReading(form, lastAnswers.get(form)));
+  form.querySelector('[data-action="save"]')?.addEventListener("click", () => saveNow(form, timer));
   form.querySelector('[data-action="print"]')?.addEventListener("click", () => window.print());
 }
 

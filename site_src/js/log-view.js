@@ -5,6 +5,9 @@ import { getOne, newestReadings } from "./db.js";
 import { currentMachine } from "./machine-pick.js";
 import { readingCard } from "./reading-view.js";
 import { showBugReports } from "./bug-reports.js";
+import { device } from "./store.js";
+
+export const LAST_EXPORT = "sumpside.last-export";
 import { currentUnits } from "./units.js";
 
 const PAGE = 50;
@@ -26,6 +29,7 @@ export function saveReading(form, kept) {
       return;
     }
     await keepReading(saved);
+    await keepForGood();
     state.textContent = "";
     const where = machine ? "Saved to the readings of " + machine.card.name + ". " : "Saved to the log (no machine chosen). ";
     const link = Object.assign(document.createElement("a"), {
@@ -44,9 +48,30 @@ export async function renderReadings(list, records, names, units, onDeleted) {
   return true;
 }
 
+// Ask the browser, at the first save, to keep this site's storage under storage pressure (it
+// may clear an unused site's data otherwise); the log page says what it answered.
+async function keepForGood() {
+  try {
+    if (navigator.storage && navigator.storage.persist && !(await navigator.storage.persisted())) await navigator.storage.persist();
+  } catch { /* not offered: the log page says so */ }
+}
+
+async function showStorage() {
+  const line = document.querySelector("[data-log-storage]");
+  let kept = false;
+  try { kept = Boolean(navigator.storage && (await navigator.storage.persisted())); } catch { kept = false; }
+  const last = device.get(LAST_EXPORT, null);
+  line.textContent = kept
+    ? "This browser keeps the readings on this device for good (it will not clear them to save space)."
+    : "This browser may clear the readings if the phone runs short of space or the app goes unused for long: "
+      + "export them from the machines page now and then (" + (last ? "last export " + new Date(last).toLocaleDateString() : "no export yet") + ").";
+  line.dataset.kept = String(kept);
+}
+
 export async function renderLog() {
   const turn = ++drawing;
   showBugReports();
+  showStorage();
   const list = document.querySelector("[data-log-list]");
   const more = document.querySelector('[data-log="more"]');
   const records = (await newestReadings(0, shownCount + 1)).map(({ at, ...r }) => r);

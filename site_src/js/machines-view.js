@@ -5,7 +5,8 @@ import { allMachines, allReadings, ask, digests, exportAll, importFile, loadDemo
   machine, redigest, removeDemo, saveMachine, today } from "./kit.js";
 import { chooseMachine } from "./machine-pick.js";
 import { go } from "./routing.js";
-import { download } from "./store.js";
+import { device, download } from "./store.js";
+import { LAST_EXPORT } from "./log-view.js";
 import { currentUnits } from "./units.js";
 
 const status = document.querySelector("[data-kit-status]");
@@ -63,7 +64,10 @@ function startListActions() {
     await removeDemo();
     status.textContent = "The demo plant is removed.";
   });
-  act("export-json", async () => download(`sumpside-${stamp()}.json`, "application/json", JSON.stringify(await exportAll(), null, 1)));
+  act("export-json", async () => {
+    download(`sumpside-${stamp()}.json`, "application/json", JSON.stringify(await exportAll(), null, 1));
+    device.set(LAST_EXPORT, new Date().toISOString());
+  });
   act("export-csv", async () => {
     const answer = await ask("csv", { machines: await allMachines(), readings: await allReadings(), units: currentUnits() });
     if (!answer.ok) throw new Error(answer.errors.map((e) => e.message).join(" "));

@@ -30,8 +30,8 @@ export function readingCard(view, machineName, onDelete) {
     card.append(verdicts, outputs);
     if (flagged.length) {
       const causes = el("ol", { className: "ranking" });
-      fillList(causes, flagged, (li, c) => li.append(el("strong", { textContent: c.title }), c.reasons.length ? ": " + c.reasons.join("; ") : ""));
-      card.append(el("p", { className: "reading-sub", textContent: "Likely causes" }), causes);
+      fillList(causes, flagged, (li, c) => li.append(el("strong", { textContent: `${c.title} (${c.word})` }), c.reasons.length ? ": " + c.reasons.join("; ") : ""));
+      card.append(el("p", { className: "reading-sub", textContent: "Causes with points" }), causes);
     }
     const inputs = el("ul", { className: "reading-inputs" });
     fillList(inputs, view.inputs, (li, i) => {

@@ -24,9 +24,15 @@ function find(wanted) {
 // `onShow(view, param)` runs each time a view is shown, the first one included.
 export function startRouting(onShow) {
   const route = () => {
-    let wanted = "home";
-    try { wanted = decodeURIComponent(location.hash.replace(/^#\/?/, "")) || "home"; } catch { /* a bad % escape */ }
+    let wanted = "home", garbled = false;
+    try { wanted = decodeURIComponent(location.hash.replace(/^#\/?/, "")) || "home"; } catch { garbled = true; }
     const [view, param] = find(wanted);
+    const note = document.querySelector("[data-route-note]");
+    const lost = garbled || (view.dataset.view === "home" && wanted !== "home");
+    if (note) {
+      note.hidden = !lost;
+      note.textContent = lost ? "That address is not one of this app's pages, so here is the start page." : "";
+    }
     shown = view;
     shown.dataset.param = param;
     for (const v of views.values()) v.hidden = v !== shown;

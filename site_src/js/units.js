@@ -1,7 +1,7 @@
 // The unit switch: metric or US, kept on the device. Switching re-expresses what was typed in
-// every form (the worker converts; a default becomes the other system's default).
+// every form (the worker converts; an example or standard value becomes the other system's).
 import { device } from "./store.js";
-import { defaultOf, fieldOf, keepForm, readInputs } from "./fields.js";
+import { defaultOf, fieldOf, keepForm, readInputs, startOf } from "./fields.js";
 
 const KEY = "sumpside.units";
 const root = document.documentElement;
@@ -17,13 +17,16 @@ function showUnitLabels() {
   for (const span of document.querySelectorAll(".unit")) {
     span.textContent = units === "us" ? span.dataset.unitUs : span.dataset.unitMetric;
   }
+  for (const input of document.querySelectorAll("[data-placeholder-metric]")) {
+    input.placeholder = units === "us" ? input.dataset.placeholderUs : input.dataset.placeholderMetric;
+  }
 }
 
 async function reexpress(calculator, form, previous) {
   const inputs = readInputs(form);
   const typed = {};
   for (const el of form.querySelectorAll("input[name]:not([type=checkbox])")) {
-    if (el.value === defaultOf(el, previous)) el.value = defaultOf(el, units);
+    if (el.value && el.value === defaultOf(el, previous)) el.value = defaultOf(el, units);
     else if (el.value.trim()) typed[el.name] = inputs[el.name];
   }
   if (Object.keys(typed).length) {
@@ -40,7 +43,7 @@ async function reexpress(calculator, form, previous) {
 // `switched` runs once every form is in the new units.
 export function startUnits(calculator, switched) {
   if (units !== "metric") {
-    for (const el of document.querySelectorAll("input[name]:not([type=checkbox])")) el.value = defaultOf(el, units) ?? el.value;
+    for (const el of document.querySelectorAll("input[name]:not([type=checkbox])")) el.value = startOf(el, units);
   }
   for (const button of document.querySelectorAll(".unit-switch button")) {
     button.addEventListener("click", async () => {

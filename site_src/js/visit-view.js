@@ -27,8 +27,8 @@ function readingBlock(r) {
   if (r.seen.length) block.append(el("p", { className: "visit-line", textContent: "Seen: " + r.seen.join("; ") }));
   if (r.outputs.length) block.append(el("p", { className: "visit-sub", textContent: "Found" }), pairs(r.outputs, "visit-pairs"));
   if (r.causes.length) {
-    block.append(el("p", { className: "visit-line", textContent: "Likely causes, in order: "
-      + r.causes.map((c) => c.title + (c.reasons.length ? " (" + c.reasons.join("; ") + ")" : "")).join(" · ") }));
+    block.append(el("p", { className: "visit-line", textContent: "Causes with points, in order: "
+      + r.causes.map((c) => `${c.title} (${[c.word, ...c.reasons].join("; ")})`).join(" · ") }));
   }
   const verdicts = el("ul", { className: "visit-verdicts" });
   for (const v of r.verdicts) verdicts.append(el("li", { textContent: (v.level ? LEVEL_WORD[v.level] + ": " : "") + v.message }));

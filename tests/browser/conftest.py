@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import os
 import shutil
+from contextlib import contextmanager
 from pathlib import Path
 
 import pytest
@@ -108,11 +109,46 @@ def open_app(page, base: str, route: str = "") -> None:
     page.wait_for_selector("html[data-ready]", timeout=BOOT_TIMEOUT_MS)
 
 
-def wait_answer(page, tool: str, key: str) -> str:
-    """The shown text of one output once the tool has answered."""
-    selector = f'form[data-tool="{tool}"] [data-out="{key}"]'
+@contextmanager
+def phone_page(browser, base_url: str, viewport: dict = PHONE):
+    """One page on a phone-sized screen with the app booted, watched; for a module's sweep
+    (the worker boots once)."""
+    watch = Watch()
+    context = browser.new_context(viewport=viewport)
+    watch.attach(context)
+    page = context.new_page()
+    open_app(page, base_url)
+    try:
+        yield page, watch
+    finally:
+        context.close()
+
+
+def fill_example(page, tool: str) -> None:
+    """The tool's form with its example values in the blank fields ("Fill an example"), once
+    it has answered them: a form starts with its readings blank (calc's rule)."""
+    form = f'form[data-tool="{tool}"]'
+    page.wait_for_function("f => { const el = document.querySelector(f); return el && el.dataset.level; }",
+                           arg=form, timeout=BOOT_TIMEOUT_MS)
+    if page.locator(f'{form} [data-action="example"]').count():  # a checklist has none
+        page.click(f'{form} [data-action="example"]')
     page.wait_for_function(
-        "s => { const el = document.querySelector(s); return el && el.textContent.trim() !== '–'; }",
+        "f => { const el = document.querySelector(f); return el.dataset.level && el.dataset.level !== 'error'; }",
+        arg=form, timeout=BOOT_TIMEOUT_MS)
+
+
+def wait_answer(page, tool: str, key: str) -> str:
+    """The shown text of one output once the tool has answered; a form whose readings are
+    still blank (it starts so) gets its examples first, as "Fill an example" gives them."""
+    form = f'form[data-tool="{tool}"]'
+    selector = f'{form} [data-out="{key}"]'
+    page.wait_for_function("f => { const el = document.querySelector(f); return el && el.dataset.level; }",
+                           arg=form, timeout=BOOT_TIMEOUT_MS)
+    if page.get_attribute(form, "data-level") == "error":
+        fill_example(page, tool)
+    page.wait_for_function(
+        "s => { const el = document.querySelector(s); return el && el.textContent.trim() !== '–'"
+        " && el.closest('form').dataset.level !== 'error'; }",
         arg=selector, timeout=BOOT_TIMEOUT_MS)
     return page.inner_text(selector)
 

@@ -8,8 +8,8 @@ import pytest
 from calc import bridge
 from calc.kernel import registry
 
-from .conftest import (BOOT_TIMEOUT_MS, PHONE, Watch, add_machine, choose_machine, open_app,
-                       wait_answer)
+from .conftest import (BOOT_TIMEOUT_MS, PHONE, add_machine, choose_machine, fill_example,
+                       open_app, phone_page, wait_answer)
 
 TOOLS = [t for t in registry.tools() if not t.startswith("checklist-")]
 
@@ -17,21 +17,14 @@ TOOLS = [t for t in registry.tools() if not t.startswith("checklist-")]
 @pytest.fixture(scope="module")
 def shared_page(browser, base_url):
     """One page for the sweep over every tool: the worker boots once."""
-    watch = Watch()
-    context = browser.new_context(viewport=PHONE)
-    watch.attach(context)
-    page = context.new_page()
-    open_app(page, base_url)
-    yield page, watch
-    context.close()
+    with phone_page(browser, base_url) as shared:
+        yield shared
 
 
 def _answer_of(page, tool):
     page.evaluate("id => { location.hash = '#/tool/' + id; }", tool)
     form = f'form[data-tool="{tool}"]'
-    page.wait_for_function(
-        """f => { const el = document.querySelector(f); return el && el.dataset.level; }""",
-        arg=form, timeout=BOOT_TIMEOUT_MS)
+    fill_example(page, tool)
     return {el.get_attribute("data-out"): el.inner_text()
             for el in page.query_selector_all(f"{form} [data-out]")}
 
@@ -50,6 +43,7 @@ def test_every_tool_shows_the_cli_answer(shared_page, tool):
 
 def test_first_tool_numbers_match_the_issue_example(page, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     form = page.locator('form[data-tool="viscosity-at-temperature"]')
     form.locator('[name="kv40"]').fill("46")
     form.locator('[name="kv100"]').fill("6,8")  # a decimal comma, as typed on many phones
@@ -70,6 +64,7 @@ def test_first_tool_numbers_match_the_issue_example(page, base_url, watch):
 ])
 def test_bad_input_is_shown_beside_its_field(page, base_url, watch, field, typed, message):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     form = page.locator('form[data-tool="viscosity-at-temperature"]')
     wait_answer(page, "viscosity-at-temperature", "kv")
     form.locator(f'[name="{field}"]').fill(typed)
@@ -86,6 +81,7 @@ def test_bad_input_is_shown_beside_its_field(page, base_url, watch, field, typed
 
 def test_us_units_convert_fields_and_answers(page, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     form = page.locator('form[data-tool="viscosity-at-temperature"]')
     form.locator('[name="temp"]').fill("60")
     page.wait_for_function("""() => document.querySelector(
@@ -98,6 +94,7 @@ def test_us_units_convert_fields_and_answers(page, base_url, watch):
     assert form.locator('[data-out="kv"]').inner_text() == "20.6 cSt"
     # The choice is kept across a reload.
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     assert page.get_attribute("html", "data-units") == "us"
     assert not watch.errors
 
@@ -113,11 +110,13 @@ def test_shell_is_usable_before_python(page, base_url):
 
 def test_offline_reload_computes_and_no_request_leaves_the_origin(page, context, base_url, watch):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     # The worker precaches the whole build, then claims the page.
     page.wait_for_function("() => navigator.serviceWorker.controller !== null", timeout=BOOT_TIMEOUT_MS)
     context.set_offline(True)
     try:
         open_app(page, base_url, "#/tool/viscosity-at-temperature")
+        fill_example(page, "viscosity-at-temperature")
         page.locator('form[data-tool="viscosity-at-temperature"] [name="temp"]').fill("60")
         page.wait_for_function("""() => document.querySelector(
             'form[data-tool="viscosity-at-temperature"] [data-out="kv"]').textContent === '20.6 cSt'""")
@@ -139,6 +138,7 @@ def test_page_declares_a_strict_content_security_policy(page, base_url):
 
 def test_viscosity_chart_is_drawn(page, base_url):
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     wait_answer(page, "viscosity-at-temperature", "kv")
     page.wait_for_selector('form[data-tool="viscosity-at-temperature"] [data-chart] svg')
     box = page.locator('form[data-tool="viscosity-at-temperature"] [data-chart] svg').bounding_box()
@@ -149,6 +149,7 @@ def test_landscape_phone_has_no_sideways_scroll(browser, base_url):
     context = browser.new_context(viewport={"width": 740, "height": 360})
     page = context.new_page()
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     wait_answer(page, "viscosity-at-temperature", "kv")
     assert page.evaluate("() => document.documentElement.scrollWidth <= window.innerWidth + 1")
     context.close()
@@ -168,6 +169,7 @@ def test_no_answer_blocks_the_page(page, base_url):
     # Typing fast never freezes the page: Python runs in the worker, never in the page, and
     # the page renders only the newest answer: in the end all of it is the last value's.
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     form = page.locator('form[data-tool="viscosity-at-temperature"]')
     field = form.locator('[name="temp"]')
     for value in ("1", "12", "-5", "70", "45"):
@@ -189,6 +191,7 @@ def test_a_tool_prints_with_machine_date_and_verdict(page, base_url, watch):
     pypdf = pytest.importorskip("pypdf")
     import io
     open_app(page, base_url, "#/tool/viscosity-at-temperature")
+    fill_example(page, "viscosity-at-temperature")
     choose_machine(page, add_machine(page, {"name": "Container handler 12, quay 3"}))
     kv = wait_answer(page, "viscosity-at-temperature", "kv")
     page.emulate_media(media="print")

@@ -25,7 +25,7 @@ RECEIVE = """async ([answer, inputs]) => {
 class _Faulty:
     """A tool whose method divides by zero, as a slip in calc would."""
 
-    def run(self, inputs, system):
+    def run(self, inputs, system, examples=False):
         return {"kv": 1 / 0}
 
 

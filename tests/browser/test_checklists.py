@@ -10,7 +10,7 @@ import pytest
 from calc import bridge
 from calc.kernel import registry
 
-from .conftest import BOOT_TIMEOUT_MS, open_app
+from .conftest import BOOT_TIMEOUT_MS, fill_example, open_app
 
 CHECKLISTS = list(registry.of_kind("checklist"))
 LEVEL_WORD = {"ok": "OK", "watch": "Watch", "act": "Act"}  # as the page shows a level
@@ -74,8 +74,7 @@ def test_tool_result_flows_back_into_the_checklist(page, base_url):
         pytest.skip("this checklist links no tool")
     tool = link.get_attribute("href").rsplit("/", 1)[-1]
     link.click()
-    page.wait_for_function("t => document.querySelector(`form[data-tool='${t}']`).dataset.level", arg=tool,
-                           timeout=BOOT_TIMEOUT_MS)
+    fill_example(page, tool)
     page.click("[data-back] a")
     reading = page.locator(f'#view-tool-{name} [data-reading-of="{tool}"]').first
     # The tool's headline outputs, as the tool declares them, and the level of its answer.

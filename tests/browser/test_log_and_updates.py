@@ -58,8 +58,12 @@ def test_typed_values_survive_a_reload(page, base_url, watch):
     page.wait_for_selector("html[data-ready]")
     assert form.locator('[name="kv40"]').input_value() == "68"
     assert form.locator('[name="pump"]').input_value() == "gear"
-    form.locator('[data-action="reset"]').click()
-    assert form.locator('[name="kv40"]').input_value() == "46"
+    # "Fill an example" fills only the blank fields, and can be undone.
+    form.locator('[data-action="example"]').click()
+    assert form.locator('[name="temp1"]').input_value() == "40"
+    assert form.locator('[name="kv40"]').input_value() == "68"  # what was typed stays
+    form.locator('[data-action="undo"]').click()
+    assert form.locator('[name="temp1"]').input_value() == ""
     assert not watch.errors
 
 

@@ -18,9 +18,9 @@ CARD = {"name": "Saw line 3", "site": "Invented Works, bay 4", "grade": "VG 46",
         "oil_family": "mineral-aw", "tank_shape": "rectangular", "tank_length": "1000",
         "tank_width": "600", "tank_height": "700", "working_level": "500", "pump_flow": "60",
         "temp_cold_start": "10", "temp_running": "45", "component": "piston",
-        "working_pressure": "200", "sample_days": "90", "filter_days": "180"}
+        "working_pressure": "200", "sample_days": "90", "filter_days": "180", "density": "870"}
 # The card's facts each reading below takes rather than having them typed.
-FACTS = {"water-in-oil": {"oil", "temp_cold", "oil_volume"},
+FACTS = {"water-in-oil": {"oil", "temp_cold", "oil_volume", "density"},
          "oil-condition": {"kv40_new", "oil", "target4", "target6", "target14"},
          "checklist-water": {"oil"}}
 
@@ -57,9 +57,13 @@ def _take(page, tool, typed, ticks=()):
     for key in FACTS[tool]:  # filled from the card, marked so, not typed
         field = form.locator(f'[name="{key}"]')
         assert field.get_attribute("data-from-card") == "1", (tool, key)
-        assert "from the card" in form.locator(f'[data-bound]:has([name="{key}"]) [data-card-mark]').inner_text()
+        # Marked (in the machine's facts, folded away once the card filled them).
+        assert "from the card" in form.locator(f'[data-bound]:has([name="{key}"]) [data-card-mark]').text_content()
     for key, value in typed.items():
-        form.locator(f'[name="{key}"]').fill(value)
+        field = form.locator(f'[name="{key}"]')
+        if not field.is_visible():  # a machine fact, folded away: opened to type over it
+            form.locator(f'details:has([name="{key}"]) > summary').click()
+        field.fill(value)
     for key in ticks:
         form.locator(f'[name="{key}"]').check()
     page.wait_for_timeout(400)  # past the debounce: the answer is to what was typed
@@ -131,6 +135,8 @@ def test_a_typed_value_is_for_this_reading_unless_saved_to_the_card(page, base_u
     form = page.locator('form[data-tool="tank-sizing"]')
     flow = form.locator('[name="pump_flow"]')
     assert flow.input_value() == "100" and flow.get_attribute("data-from-card") == "1"
+    assert not flow.is_visible()  # the machine's facts fold away once the card fills them
+    form.locator('[data-group="machine"] > summary').click()
     flow.fill("120")
     mark = form.locator('[data-bound]:has([name="pump_flow"]) [data-card-mark]')
     assert mark.inner_text() == "changed for this reading"
@@ -157,15 +163,17 @@ def test_a_typed_value_is_for_this_reading_unless_saved_to_the_card(page, base_u
     assert not watch.errors
 
 
-def test_no_machine_means_the_tools_own_defaults(page, base_url, watch):
+def test_no_machine_means_the_facts_are_blank_with_examples_as_placeholders(page, base_url, watch):
     open_app(page, base_url, "#/tool/tank-sizing")
     machine_id = add_machine(page, {"name": "Press 9", "pump_flow": "250"})
     choose_machine(page, machine_id)
     form = page.locator('form[data-tool="tank-sizing"]')
     assert form.locator('[name="pump_flow"]').input_value() == "250"
     page.select_option("#job-machine", "")
-    page.wait_for_function("() => document.querySelector('form[data-tool=\"tank-sizing\"] [name=\"pump_flow\"]').value === '100'",
+    page.wait_for_function("() => document.querySelector('form[data-tool=\"tank-sizing\"] [name=\"pump_flow\"]').value === ''",
                            timeout=BOOT_TIMEOUT_MS)
+    assert form.locator('[name="pump_flow"]').get_attribute("placeholder") == "e.g. 100"
+    assert form.locator('[name="pump_flow"]').is_visible()  # unfolded, to be typed
     assert form.locator("[data-for-machine]").is_hidden()
     assert not watch.errors
 

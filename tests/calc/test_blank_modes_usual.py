@@ -185,3 +185,30 @@ def test_a_vi_and_a_count_are_whole_numbers_and_no_trailing_zeros():
     assert units.show(95.0, "vi", "metric") == "95"
     assert units.show(40.0, "per_ml", "metric") == "40 /mL"
     assert units.show(1300.0, "per_ml", "metric") == "1300 /mL"
+
+
+def test_two_tools_on_one_cold_start_each_say_which_governs_and_link_the_other():
+    # The viscosity tool's start-up temperature is the pump's limit alone; the suction check
+    # adds the line: each names the other, and the warmer governs.
+    for one, other in (("viscosity-at-temperature", "suction-check"),
+                       ("suction-check", "viscosity-at-temperature")):
+        related = bridge.run(one, {}, examples=True)["related"]
+        assert [r["tool"] for r in related] == [other]
+        assert "the warmer of the two governs" in related[0]["why"]
+        assert related[0]["title"] == TOOLS[other].title
+    for found in TOOLS.values():
+        assert all(other in TOOLS for other, _why in found.related), found.id
+
+
+def test_a_tank_is_not_ok_and_act_at_once():
+    # 400 L on 100 L/min is 4 min of flow (inside the 3 to 5 min rule of thumb, common
+    # practice) while the oil stays 4 min against a 10 min air-release time: the dwell governs.
+    answer = bridge.run("tank-sizing", {"tank_volume": "400", "oil_volume": "400",
+                                        "pump_flow": "100", "air_release": "10"}, examples=True)
+    levels = [v["level"] for v in answer["verdicts"]]
+    assert "ok" not in levels and answer["level"] == "act"
+    assert any("rule of thumb" in n and "governs" in n for n in answer["notes"])
+    # With a short air-release time the rule of thumb and the dwell agree, and both say so.
+    fine = bridge.run("tank-sizing", {"tank_volume": "400", "oil_volume": "400",
+                                      "pump_flow": "100", "air_release": "3"}, examples=True)
+    assert [v["level"] for v in fine["verdicts"]][:2] == ["ok", "ok"]

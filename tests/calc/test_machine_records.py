@@ -118,6 +118,11 @@ def test_an_earlier_log_of_500_entries_migrates_without_loss():
     entries[0]["tool"], entries[0]["inputs"], entries[0]["units"] = (
         "tank-sizing", {"flow": "50"}, "metric")
     entries[1]["tool"], entries[1]["inputs"] = "tank-sizing", {"working_level": "70"}
+    # The earlier form sent every field, those its mode did not use too (grade and VI with
+    # two readings): they are left out, not a reason to keep the entry as saved.
+    entries[2]["tool"], entries[2]["units"] = "viscosity-at-temperature", "metric"
+    entries[2]["inputs"] = {"oil_from": "readings", "kv40": "46", "temp1": "40", "kv100": "6.8",
+                            "temp2": "100", "grade": "VG 46", "vi": "100", "temp": "60"}
     moved = records.migrate(entries, STAMP)
     assert len(moved["readings"]) == 500 and moved["skipped"] == 0
     assert moved["recomputed"] + moved["kept_as_saved"] == 500
@@ -127,6 +132,7 @@ def test_an_earlier_log_of_500_entries_migrates_without_loss():
     first, second = moved["readings"][:2]
     assert first["inputs"]["pump_flow"] == 50.0 and "as_saved" not in first
     assert second["as_saved"]["inputs"] == {"working_level": "70"}
+    assert "as_saved" not in moved["readings"][2] and moved["readings"][2]["inputs"]["temp"] == 60.0
     for entry, record in zip(entries, moved["readings"]):
         view = records.view(record, "metric")
         assert view["time"] == entry["at"].replace("Z", "+00:00")
