@@ -275,7 +275,7 @@ class Field:
 
     def at_shown_limit(self, value: float, system: str) -> float:
         """A value just past a limit that reads the same as the limit in `system` (the limit
-        as a message shows it, rounded: 264 000 US gal for 1 000 000 L) is the limit itself:
+        as a message shows it, rounded: 264200 US gal for 1 000 000 L) is the limit itself:
         limits are compared before rounding, so the figure the form shows is accepted."""
         for limit, past in ((self.min, lambda: value < self.min), (self.max, lambda: value > self.max)):
             if limit is not None and past() and (units.show_number(value, self.quantity, system)
