@@ -349,7 +349,15 @@ def migrate(request: dict) -> dict:
     return _with_digests(records.migrate(_list(request, "entries"), request.get("time")))
 
 
+def check_readings(request: dict) -> dict:
+    """Readings from a file (``"readings"``) checked against the record's shape: the clean
+    ones and how many were refused, with the first reasons (calc.machines.records)."""
+    _list(request, "readings")  # a list, or refused naming the member
+    return {"ok": True, **records.checked_readings(request["readings"])}
+
+
 OPS = {
+    "check-readings": check_readings,
     "card-form": card_form, "card-check": card_check, "card-view": card_view,
     "card-reexpress": card_reexpress, "fill": fill,
     "to-card": to_card, "run": run, "save": save, "reading": reading, "readings": readings,

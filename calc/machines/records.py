@@ -273,3 +273,98 @@ def _old_tracked(entry: dict, system: str) -> dict:
         if o.tracks and _finite(value):
             out[o.tracks] = units.to_metric(float(value), o.quantity, system)
     return out
+
+
+# --- A reading that comes from outside calc (a file, later a sync) -------------------------
+
+ID_MAX_CHARS = 64
+TEXT_VALUE_MAX_CHARS = 2000
+INPUTS_MAX = 200
+
+
+def _finite_number(value: object) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
+
+
+def checked_reading(record: object) -> dict:
+    """A reading record from outside calc checked against the record's declared shape (its
+    members, their types, sizes and times, every number finite), as a clean copy of only
+    those members; InputError with the reason otherwise. It is computed again when shown,
+    so a record that fits the shape but not today's tool still shows what it kept."""
+    if not isinstance(record, dict):
+        raise InputError("reading", "is not a record")
+    if record.get("format") != READING or record.get("version") != VERSION:
+        raise InputError("format", "is not a reading of this version ({format} {version})",
+                         format=Q(READING, "text"), version=Q(float(VERSION), "count"))
+    for key in ("id",):
+        value = record.get(key)
+        if not isinstance(value, str) or not 0 < len(value) <= ID_MAX_CHARS:
+            raise InputError(key, "is not an id (text of 1 to {most} characters)",
+                             most=Q(float(ID_MAX_CHARS), "count"))
+    machine = record.get("machine")
+    if machine is not None and (not isinstance(machine, str) or len(machine) > ID_MAX_CHARS):
+        raise InputError("machine", "is not a machine's id")
+    tool = record.get("tool")
+    if not isinstance(tool, str) or tool not in registry.tools():
+        raise InputError("tool", "is not a tool of this version")
+    checked_time(record.get("time"))
+    inputs = record.get("inputs")
+    if not isinstance(inputs, dict) or len(inputs) > INPUTS_MAX or not all(
+            isinstance(k, str) and len(k) <= ID_MAX_CHARS and (
+                v is None or isinstance(v, bool) or _finite_number(v)
+                or (isinstance(v, str) and len(v) <= TEXT_VALUE_MAX_CHARS))
+            for k, v in inputs.items()):
+        raise InputError("inputs", "are not a set of named numbers, texts and ticks")
+    from_card = record.get("from_card", [])
+    if not isinstance(from_card, list) or not all(isinstance(k, str) and k in inputs
+                                                  for k in from_card):
+        raise InputError("from_card", "names inputs the reading does not have")
+    tracked = record.get("tracked", {})
+    if not isinstance(tracked, dict) or not all(
+            k in registry.TRACKED and _finite_number(v) for k, v in tracked.items()):
+        raise InputError("tracked", "holds values that are not finite numbers of followed "
+                                    "quantities")
+    note = record.get("note", "")
+    if not isinstance(note, str) or len(note) > NOTE_MAX_CHARS:
+        raise InputError("note", "is not a note of at most {most} characters",
+                         most=Q(float(NOTE_MAX_CHARS), "count"))
+    level = record.get("level")
+    if level not in (None, "ok", "watch", "act"):
+        raise InputError("level", "is not ok, watch or act")
+    clean = {"format": READING, "version": VERSION, "id": record["id"], "machine": machine,
+             "tool": tool, "inputs": dict(inputs), "from_card": list(from_card),
+             "calc": str(record.get("calc", ""))[:40], "time": record["time"], "note": note,
+             "tracked": {k: float(v) for k, v in tracked.items()}, "level": level}
+    for flag in ("migrated", "demo"):
+        if record.get(flag) is True:
+            clean[flag] = True
+    saved = record.get("as_saved")
+    if saved is not None:
+        if not isinstance(saved, dict) or len(str(saved)) > 20 * TEXT_VALUE_MAX_CHARS:
+            raise InputError("as_saved", "is not the text an earlier build kept")
+        clean["as_saved"] = {"title": str(saved.get("title", ""))[:200],
+                             "text": {str(k)[:ID_MAX_CHARS]: str(v)[:200]
+                                      for k, v in dict(saved.get("text") or {}).items()},
+                             "verdicts": [str(v)[:TEXT_VALUE_MAX_CHARS]
+                                          for v in list(saved.get("verdicts") or [])],
+                             "inputs": {str(k)[:ID_MAX_CHARS]: str(v)[:200]
+                                        for k, v in dict(saved.get("inputs") or {}).items()},
+                             "units": saved.get("units") if saved.get("units") in units.SYSTEMS
+                             else "metric",
+                             "level": saved.get("level") if saved.get("level") in
+                             ("ok", "watch", "act") else None}
+    return clean
+
+
+def checked_readings(found: list) -> dict:
+    """Readings from a file: ``{"readings": the clean ones, "refused": how many, "reasons":
+    the first few, each with its place in the file}``."""
+    accepted, reasons, refused = [], [], 0
+    for place, record in enumerate(found if isinstance(found, list) else [], 1):
+        try:
+            accepted.append(checked_reading(record))
+        except (InputError, TypeError, ValueError) as err:
+            refused += 1
+            if len(reasons) < 3:
+                reasons.append(f"reading {place}: {err}")
+    return {"readings": accepted, "refused": refused, "reasons": reasons}

@@ -22,9 +22,9 @@ MODES = (("vi", "VI from KV40 and KV100"), ("kv100", "KV100 from KV40 and VI"))
         Field("kv40", "KV at 40 °C", _KV, 46.0, min=2.0, max=1.0e6, binds="kv40_new",
               help="From the data sheet or lab report.", usual=(9.0, 750.0)),
         Field("kv100", "KV at 100 °C", _KV, 6.8, min=0.21, max=1.0e5, binds="kv100_new",
-              help="Used when finding the VI. At least 2 cSt: D2270 does not go lower.", usual=(2.0, 60.0)),
+              help="Used when finding the VI. At least 2 cSt: D2270 does not go lower.", usual=(2.0, 60.0), when=("mode", "vi")),
         Field("vi", "Viscosity index", "vi", 100.0, min=-100.0, max=400.0, binds="vi",
-              help="Used when finding KV100."),
+              help="Used when finding KV100.", when=("mode", "kv100")),
     ),
     outputs=(
         Output("vi", "Viscosity index (rounded)", "vi", "Rounded to the nearest whole number, "

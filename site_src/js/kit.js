@@ -23,6 +23,16 @@ export function localStamp(date = new Date()) {
 }
 export const today = () => localStamp().slice(0, 10);
 
+// Why the device refused to store something, in words a technician can act on.
+export function storageProblem(err) {
+  const name = err && err.name;
+  if (name === "QuotaExceededError") return "the phone's storage for this app is full: export the readings, delete old ones or free space, then try again";
+  if (name === "InvalidStateError" || name === "SecurityError" || name === "UnknownError" || !("indexedDB" in globalThis)) {
+    return "this browser does not let the app keep data here (a private window, or storage switched off): nothing was stored";
+  }
+  return "this device refused to store it (" + ((err && err.message) || name || "no reason given") + ")";
+}
+
 const stored = (record) => ({ ...record, at: Date.parse(record.time) });
 const plain = ({ at, ...record }) => record; // calc's record, without the page's index field
 
@@ -127,14 +137,17 @@ export async function importFile(data) {
       + checked.errors.map((e) => `${e.field}: ${e.message}`).join("; "));
     machines.push(m.demo ? { ...checked.machine, demo: true } : checked.machine);
   }
-  const readings = data.readings.filter((r) => r && typeof r.id === "string" && !known.has(r.id)
-    && typeof r.time === "string" && !Number.isNaN(Date.parse(r.time)));
+  // Every reading is checked by calc against the record's shape before it is kept; the
+  // refused ones are counted and the first reasons said.
+  const checked = await ask("check-readings", { readings: data.readings });
+  if (!checked.ok) throw new Error(checked.errors.map((e) => e.message).join("; "));
+  const readings = checked.readings.filter((r) => !known.has(r.id));
   await keepAll({ machines, readings });
   for (const id of new Set([...machines.map((m) => m.id), ...readings.map((r) => r.machine).filter(Boolean)])) {
     await redigest(id);
   }
   changed();
-  return { machines: machines.length, readings: readings.length };
+  return { machines: machines.length, readings: readings.length, refused: checked.refused, reasons: checked.reasons };
 }
 
 // The earlier build's log (store "entries") moved into machines and readings once, by calc;

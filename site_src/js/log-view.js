@@ -1,6 +1,6 @@
 // The log: every saved reading, newest first, a page at a time, as calc shows it now in the
 // units chosen; the bug reports below. Saving a form's answer as a reading is here too.
-import { allMachines, ask, deleteReading, digests, keepReading, localStamp, onKitChange } from "./kit.js";
+import { allMachines, ask, deleteReading, digests, keepReading, localStamp, onKitChange, storageProblem } from "./kit.js";
 import { getOne, newestReadings } from "./db.js";
 import { currentMachine } from "./machine-pick.js";
 import { readingCard } from "./reading-view.js";
@@ -36,7 +36,7 @@ export function saveReading(form, kept) {
       href: machine ? "#/machine/" + encodeURIComponent(machine.id) : "#/log",
       textContent: machine ? "Open its page" : "Open the log" });
     state.append(where, link);
-  }).catch((err) => { state.textContent = "Not saved: this device refused to store it (" + err.message + ")."; });
+  }).catch((err) => { state.textContent = "Not saved: " + storageProblem(err) + "."; });
   return saving;
 }
 

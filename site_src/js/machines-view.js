@@ -2,7 +2,7 @@
 // the demo plant, export and import; and the card form, to make a machine or edit its card.
 import { LEVEL_WORD, el } from "./answers.js";
 import { allMachines, allReadings, ask, digests, exportAll, importFile, loadDemo, localStamp,
-  machine, redigest, removeDemo, saveMachine, today } from "./kit.js";
+  machine, redigest, removeDemo, saveMachine, storageProblem, today } from "./kit.js";
 import { chooseMachine } from "./machine-pick.js";
 import { go } from "./routing.js";
 import { device, download } from "./store.js";
@@ -10,6 +10,18 @@ import { LAST_EXPORT } from "./log-view.js";
 import { currentUnits } from "./units.js";
 
 const status = document.querySelector("[data-kit-status]");
+
+// A file's text: UTF-16 when it starts with its byte-order mark, else UTF-8, strictly (a
+// Latin-1 or other file is refused, never stored garbled).
+function decodeText(buffer) {
+  const head = new Uint8Array(buffer.slice(0, 2));
+  const utf16 = head[0] === 0xff && head[1] === 0xfe ? "utf-16le" : head[0] === 0xfe && head[1] === 0xff ? "utf-16be" : null;
+  try {
+    return new TextDecoder(utf16 || "utf-8", { fatal: true }).decode(buffer);
+  } catch {
+    throw new Error("the file is not UTF-8 or UTF-16 text: save it again as UTF-8 and import that");
+  }
+}
 const list = document.querySelector("[data-machine-list]");
 const cardForm = document.querySelector("[data-card-form]");
 let drawing = 0;
@@ -77,10 +89,12 @@ function startListActions() {
     const file = event.target.files[0];
     if (!file) return;
     try {
-      const added = await importFile(JSON.parse(await file.text()));
-      status.textContent = `Imported ${added.machines} machine(s) and ${added.readings} reading(s); what was here already is kept.`;
+      const added = await importFile(JSON.parse(decodeText(await file.arrayBuffer())));
+      status.textContent = `Imported ${added.machines} machine(s) and ${added.readings} reading(s); what was here already is kept.`
+        + (added.refused ? ` ${added.refused} reading(s) refused and left out: ${added.reasons.join("; ")}.` : "");
     } catch (err) {
-      status.textContent = "Import failed: " + err.message;
+      status.textContent = "Import failed, nothing was added: " + (err instanceof SyntaxError
+        ? "the file is not JSON (a Sumpside export is a .json file; use UTF-8 or UTF-16 text)" : err.name && err.name !== "Error" ? storageProblem(err) : err.message);
     }
     event.target.value = "";
   });

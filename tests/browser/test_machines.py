@@ -227,3 +227,40 @@ def test_everything_exports_and_imports_without_loss(page, browser, base_url, wa
     assert phone.locator(".machine-item").count() == 3
     other.close()
     assert not watch.errors
+
+
+def test_a_hostile_import_adds_what_is_sound_and_says_what_it_refused(page, base_url, watch):
+    # Once, "verdicts": 5 in one entry hid the whole log; now each reading is checked by calc.
+    open_app(page, base_url, "#/machines")
+    good = page.evaluate(f"""async () => {{
+      const kit = {KIT};
+      const made = await kit.ask("save", {{ tool: "viscosity-index", inputs: {{ kv40: "46", kv100: "6.8" }},
+                                        units: "metric", machine: null, time: kit.localStamp() }});
+      return made.record;
+    }}""")
+    hostile = [{**good, "id": "bad-1", "tracked": {"kv40": "1e999"}},
+               {**good, "id": "bad-2", "time": "yesterday"},
+               {**good, "id": "bad-3", "inputs": {"kv40": {"toString": 1}}}, "junk"]
+    data = {"format": "sumpside-export", "version": 1, "machines": [], "readings": [good, *hostile]}
+    page.set_input_files('[data-kit="import"]', files=[{"name": "hostile.json", "mimeType": "application/json",
+                                                        "buffer": json.dumps(data).encode()}])
+    status = page.locator("[data-kit-status]")
+    status.filter(has_text="Imported").wait_for(timeout=BOOT_TIMEOUT_MS)
+    said = status.inner_text()
+    assert "1 reading(s)" in said and "4 reading(s) refused" in said and "reading 2: tracked" in said
+    open_app(page, base_url, "#/log")
+    page.locator("[data-log-list] article").first.wait_for(timeout=BOOT_TIMEOUT_MS)
+    assert page.locator("[data-log-list] article").count() == 1
+    assert not watch.errors
+
+
+def test_a_file_that_is_not_utf8_changes_nothing_and_says_why(page, base_url, watch):
+    open_app(page, base_url, "#/machines")
+    latin1 = '{"format": "sumpside-export", "machines": [{"id": "m", "card": {"name": "Presse \u00e0 chaud"}}]}'
+    page.set_input_files('[data-kit="import"]', files=[{"name": "latin1.json", "mimeType": "application/json",
+                                                        "buffer": latin1.encode("latin-1")}])
+    status = page.locator("[data-kit-status]")
+    status.filter(has_text="Import failed").wait_for(timeout=BOOT_TIMEOUT_MS)
+    assert "not UTF-8 or UTF-16" in status.inner_text()
+    assert page.evaluate(f"async () => ({KIT}).allMachines()") == []
+    assert not watch.errors

@@ -144,3 +144,21 @@ def test_migration_skips_only_what_has_no_time():
     moved = records.migrate([{"tool": "tank-sizing"}, "junk", None,
                              {"at": "2026-01-01T08:00:00Z", "tool": "gone-tool"}], STAMP)
     assert moved["skipped"] == 3 and moved["kept_as_saved"] == 1
+
+
+def test_a_reading_from_a_file_is_checked_against_the_records_shape():
+    # Reproductions of hostile imports: a count where text belongs, an object where a
+    # number belongs, a time that is not one, an infinite value, junk in the list.
+    good = records.new_reading("viscosity-index", {"kv40": "46", "kv100": "6.8"}, "metric", None,
+                               STAMP, examples=True)["record"]
+    assert records.checked_reading(good) == good
+    hostile = [dict(good, id="a" * 65), dict(good, tracked={"kv40": float("inf")}),
+               dict(good, time="2026-05-01"), dict(good, inputs={"kv40": {"toString": 1}}),
+               "junk", dict(good, tool="no-such-tool"), dict(good, note="x" * 2001),
+               dict(good, level="fine"), dict(good, from_card=["nope"])]
+    found = records.checked_readings([good, *hostile, dict(good, verdicts=5, title={"x": 1})])
+    assert found["refused"] == len(hostile) and len(found["reasons"]) == 3
+    assert found["reasons"][0].startswith("reading 2: id:")
+    # Members the record does not declare are dropped, not kept.
+    assert found["readings"] == [good, good]
+    json.dumps(found, allow_nan=False)
