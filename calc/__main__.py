@@ -22,16 +22,32 @@ from . import bridge
 LEVEL_MARK = {"ok": "OK   ", "watch": "WATCH", "act": "ACT  "}
 
 
+class ArgumentsRefused(Exception):
+    """The command line itself is wrong (an unknown option, a missing tool id)."""
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse that raises on a bad command line instead of exiting, so that `main` can
+    answer in the JSON error shape when --json was asked for."""
+
+    def error(self, message: str):  # argparse's hook; never returns
+        raise ArgumentsRefused(message)
+
+
+def _units(text: str) -> str:
+    return text.strip().lower()
+
+
 def _parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(prog="python -m calc", description="Sumpside calculators")
-    sub = parser.add_subparsers(dest="command", required=True)
+    parser = _Parser(prog="python -m calc", description="Sumpside calculators")
+    sub = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
     listing = sub.add_parser("tools", help="list the tools and their inputs")
     listing.add_argument("--json", action="store_true", help="print the catalogue as JSON")
-    listing.add_argument("--units", default="metric", choices=("metric", "us"))
+    listing.add_argument("--units", default="metric", type=_units, choices=("metric", "us"))
     run = sub.add_parser("run", help="run one tool: run ID key=value ...")
     run.add_argument("tool", help="tool id, see `python -m calc tools`")
     run.add_argument("pairs", nargs="*", metavar="key=value")
-    run.add_argument("--units", default="metric", choices=("metric", "us"))
+    run.add_argument("--units", default="metric", type=_units, choices=("metric", "us"))
     run.add_argument("--json", action="store_true", help="print the bridge's JSON answer")
     run.add_argument("--svg", metavar="FILE", help="write the tool's chart, if it draws one")
     run.add_argument("--machine", metavar="CARD.json",
@@ -95,15 +111,30 @@ def _print_answer(answer: dict, tool_outputs: dict) -> None:
         print("sources: " + "; ".join(answer["sources"]))
 
 
-def main(argv: list[str] | None = None) -> int:
+def _arguments(argv: list[str]) -> argparse.Namespace:
     parser = _parser()
     # Options may come between key=value pairs: argparse leaves the later pairs over.
     args, extra = parser.parse_known_args(argv)
     stray = [x for x in extra if x.startswith("-") or args.command != "run"]
     if stray:
-        parser.error(f"unrecognized arguments: {' '.join(stray)}")
+        parser.error(f"unrecognized arguments: {' '.join(stray)[:80]}")
     if extra:
         args.pairs = args.pairs + extra
+    return args
+
+
+def main(argv: list[str] | None = None) -> int:
+    argv = sys.argv[1:] if argv is None else list(argv)
+    try:
+        args = _arguments(argv)
+    except ArgumentsRefused as err:
+        if "--json" in argv:
+            print(json.dumps({"ok": False, "errors": [{"field": "command line",
+                                                       "message": str(err)}]}, indent=2))
+        else:
+            _parser().print_usage(sys.stderr)
+            print(f"python -m calc: error: {err}", file=sys.stderr)
+        return 2
     if args.command == "tools":
         if args.json:
             print(json.dumps(bridge.catalogue(args.units), indent=2, ensure_ascii=False))

@@ -65,7 +65,9 @@ EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
         Field("kv_temp", "Temperature of the reading", _T, 40.0, min=-30.0, max=150.0,
               help="40 °C for a standard KV40. Any other temperature is traced back to 40 °C."),
         Field("vi", "Viscosity index of the oil", "vi", 100.0, min=-100.0, max=400.0, binds="vi",
-              help="From the data sheet; used only when the reading is not at 40 °C."),
+              optional=True,
+              help="From the data sheet or the machine card. Needed only when the reading is "
+                   "not at 40 °C; at 40 °C it gives the KV100 shown beside the grade."),
         Field("grade", "Grade that should be in the tank", "choice", "VG 46",
               choices=EXPECTED_CHOICES, binds="grade"),
     ),
@@ -79,10 +81,14 @@ EXPECTED_CHOICES = (("none", "Not known"),) + GRADE_CHOICES
         Output("off_expected", "Off the expected grade's mid-point", _PCT),
     ),
 )
-def viscosity_grade(kv: float, kv_temp: float, vi: float, grade: str) -> Result:
+def viscosity_grade(kv: float, kv_temp: float, vi: float | None, grade: str) -> Result:
     """ISO 3448 grade of a reading, and the wrong-oil check against the expected grade."""
     temp = kv_temp
-    kv40, kv100 = kv40_from_reading(kv, temp, vi)
+    if vi is None and temp != 40.0:
+        raise InputError("vi", "is needed to trace a reading at {temp} back to {forty}: type "
+                               "the oil's VI from its data sheet, or read the viscosity at {forty}",
+                         temp=Q(temp, _T), forty=Q(40.0, _T))
+    kv40, kv100 = (kv, None) if vi is None else kv40_from_reading(kv, temp, vi)
     name, off = nearest_grade(kv40)
     inside = grade_containing(kv40)
     if inside:
@@ -99,7 +105,7 @@ def viscosity_grade(kv: float, kv_temp: float, vi: float, grade: str) -> Result:
         result.grade(as_stated(kv40, low), WRONG_OIL_BANDS, COMMON_PRACTICE, kv40=Q(kv40, _KV),
                      off=Q(abs(off_expected), _PCT), grade=Q(grade, "text"),
                      low=Q(low, _KV), high=Q(high, _KV))
-    if kv100 is None:
+    if kv100 is None and vi is not None:
         result.note("D2270 gives no KV100 for an oil this thin at VI {vi} (it would be below {two} "
                     "at {hundred}); a reading at {forty} needs none to be graded.",
                     vi=Q(vi, "vi"), two=Q(2.0, _KV), hundred=Q(100.0, _T), forty=Q(40.0, _T))

@@ -144,14 +144,16 @@ def test_all_grades_include_undefined_thin_ones_with_a_reason():
 def test_reading_elsewhere_too_thin_for_its_vi_names_the_reading():
     # 1 cSt at 60 degC traces back to a KV40 below H = 6.394 cSt at KV100 2 cSt (D2270
     # Table 1): no VI 100 oil reads that, and the reading is named.
-    answer = bridge.run("viscosity-grade", {"kv": 1.0, "kv_temp": 60}, examples=True)
+    answer = bridge.run("viscosity-grade", {"kv": 1.0, "kv_temp": 60, "vi": 100},
+                         examples=True)
     assert not answer["ok"] and answer["errors"][0]["field"] == "kv"
 
 
 def test_a_40c_reading_classifies_without_a_kv100():
     # VG 2 to VG 10 at 40 degC need no KV100 to classify (ISO 3448 grades are by KV40 alone);
     # D2270 has no KV100 for a VI-100 oil of 2.2 cSt, so none is given, and it says why.
-    answer = bridge.run("viscosity-grade", {"kv": 2.2, "grade": "VG 2"}, examples=True)
+    answer = bridge.run("viscosity-grade", {"kv": 2.2, "grade": "VG 2", "vi": 100},
+                         examples=True)
     assert answer["ok"] and answer["values"]["band"] == "inside VG 2"
     assert answer["values"]["kv100"] is None and answer["level"] == "ok"
     assert any("2 cSt" in n or "D2270" in n for n in answer["notes"])
@@ -163,3 +165,21 @@ def test_a_limit_of_the_standard_is_compared_as_written():
     answer = bridge.run("viscosity-grade", {"kv": 50.6, "grade": "VG 46"}, examples=True)
     assert answer["values"]["band"] == "inside VG 46" and answer["level"] == "ok"
     assert bridge.run("viscosity-grade", {"kv": 50.7, "grade": "VG 46"}, examples=True)["level"] == "act"
+
+
+def test_a_40c_reading_needs_no_vi():
+    # ISO 3448 grades by KV40 alone (Table 1): a lab KV40 classifies with the VI left blank,
+    # and the KV100 (which needs the VI, ASTM D2270) is left out rather than guessed.
+    answer = bridge.run("viscosity-grade", {"kv": 46.0, "kv_temp": 40, "grade": "VG 46"})
+    assert answer["ok"], answer
+    assert answer["values"]["band"] == "inside VG 46" and answer["values"]["kv100"] is None
+    assert answer["level"] == "ok"
+
+
+def test_a_reading_elsewhere_without_a_vi_asks_for_it():
+    # Tracing a reading at 60 degC back to 40 degC needs the oil's VI (ASTM D341 line through
+    # a D2270 pair): without it the VI field is named, not a guess made.
+    answer = bridge.run("viscosity-grade", {"kv": 20.6, "kv_temp": 60, "grade": "VG 46"})
+    assert not answer["ok"]
+    assert [e["field"] for e in answer["errors"]] == ["vi"]
+    assert "back to 40" in answer["errors"][0]["message"]

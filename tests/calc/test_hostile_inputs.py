@@ -88,3 +88,29 @@ def test_a_gauge_pressure_below_a_full_vacuum_is_refused():
                                                  "value": "-50"}), "value")
     assert "-1.013 bar" in message
     assert bridge.run("unit-convert", {"from_unit": "bar", "to_unit": "psi", "value": "-1"})["ok"]
+
+
+@pytest.mark.parametrize("argv", [
+    ["run", "tank-sizing", "--bogus", "--json"],
+    ["run", "--json"],
+    ["run", "tank-sizing", "--units", "imperial", "--json"],
+    ["tools", "--json", "--units", "furlongs"],
+])
+def test_a_wrong_command_line_answers_in_json_under_json(argv, capsys):
+    # Issue 14: a script reading --json output gets the error shape, never argparse's usage.
+    assert main(argv) == 2
+    out = json.loads(capsys.readouterr().out)
+    assert out["ok"] is False and out["errors"][0]["field"] == "command line"
+    assert out["errors"][0]["message"]
+
+
+def test_a_wrong_command_line_without_json_prints_usage(capsys):
+    assert main(["run", "tank-sizing", "--bogus"]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("usage:") and "--bogus" in err
+
+
+def test_units_are_read_whatever_their_case(capsys):
+    assert main(["run", "unit-convert", "from_unit=bar", "to_unit=psi", "value=1",
+                 "--units", "US", "--json"]) == 0
+    assert json.loads(capsys.readouterr().out)["ok"] is True
