@@ -27,7 +27,7 @@ from typing import Callable
 
 from . import units
 from .constants import ABSOLUTE_ZERO_C
-from .errors import InputError, typed
+from .errors import QUOTE_CHARS, InputError, typed
 from .result import Q, Result, Text
 
 # Quantities kept as text: free text, and a calendar day (ISO 8601 date).
@@ -598,7 +598,7 @@ class Tool:
         errors += [InputError(k, "is no longer an input of {tool}: {instead}",
                              tool=Q(self.id, "text"), instead=Q(retired[k], "text"))
                   if k in retired else
-                  InputError(k, "is not an input of {tool}; inputs are {inputs}",
+                  InputError(k[:QUOTE_CHARS], "is not an input of {tool}; inputs are {inputs}",
                              tool=Q(self.id, "text"), inputs=inputs) for k in unknown]
         values = {}
         for f in self.inputs:
