@@ -9,6 +9,11 @@
 // serving, whole (what did arrive, checked, is kept for the next try). It takes over only
 // when the page asks (the user tapped "Use it now"); then the other caches are deleted.
 // Requests to other origins are never made or answered here.
+//
+// The page asks at each start whether this build's cache still holds every file ("offline
+// check": the phone or the user may have cleared it) and, when some are missing and the
+// network is there, has them fetched again ("offline repair"). It is told when an install
+// fails (a full disk), so that it never claims to work offline when it does not.
 const BUILD = "__BUILD_ID__";
 const PRECACHE = [/* __PRECACHE__ */];
 const PREFIX = "sumpside-";
@@ -42,20 +47,41 @@ async function download(entry) {
   return new Response(await response.blob(), { status: 200, statusText: "OK", headers });
 }
 
+// Every file of this build into its cache: kept where it is already, copied from an older
+// build's cache where that holds the same bytes, else downloaded and checked.
+async function fillCache() {
+  const older = await Promise.all((await caches.keys())
+    .filter((name) => name.startsWith(PREFIX) && name !== CACHE).map((name) => caches.open(name)));
+  const cache = await caches.open(CACHE);
+  await Promise.all(PRECACHE.map(async (entry) => {
+    if (await holding(cache, entry)) return;
+    for (const old of older) {
+      const copy = await holding(old, entry);
+      if (copy) return cache.put(entry.url, copy);
+    }
+    return cache.put(entry.url, await download(entry));
+  }));
+}
+
+// How many of this build's files its cache lacks (0: the whole build works offline).
+async function lacking() {
+  const cache = await caches.open(CACHE);
+  const held = await Promise.all(PRECACHE.map((entry) => holding(cache, entry)));
+  return held.filter((hit) => !hit).length;
+}
+
+const reason = (err) => `${(err && err.name) || "Error"}: ${(err && err.message) || err}`;
+
+async function tell(message, client = null) {
+  const to = client ? [client] : await self.clients.matchAll({ includeUncontrolled: true, type: "window" });
+  for (const c of to) c.postMessage({ build: BUILD, files: PRECACHE.length, ...message });
+}
+
 self.addEventListener("install", (event) => {
-  event.waitUntil((async () => {
-    const older = await Promise.all((await caches.keys())
-      .filter((name) => name.startsWith(PREFIX) && name !== CACHE).map((name) => caches.open(name)));
-    const cache = await caches.open(CACHE);
-    await Promise.all(PRECACHE.map(async (entry) => {
-      if (await holding(cache, entry)) return;
-      for (const old of older) {
-        const copy = await holding(old, entry);
-        if (copy) return cache.put(entry.url, copy);
-      }
-      return cache.put(entry.url, await download(entry));
-    }));
-  })());
+  event.waitUntil(fillCache().catch(async (err) => {
+    await tell({ type: "offline-failed", reason: reason(err) });
+    throw err;
+  }));
 });
 
 self.addEventListener("activate", (event) => {
@@ -69,6 +95,13 @@ self.addEventListener("activate", (event) => {
 
 self.addEventListener("message", (event) => {
   if (event.data === "activate-new-build") self.skipWaiting();
+  if (event.data === "offline-check" || event.data === "offline-repair") {
+    event.waitUntil((async () => {
+      let failed = null;
+      if (event.data === "offline-repair") await fillCache().catch((err) => { failed = reason(err); });
+      await tell({ type: "offline-state", missing: await lacking(), reason: failed }, event.source);
+    })());
+  }
 });
 
 self.addEventListener("fetch", (event) => {

@@ -248,13 +248,14 @@ class Field:
     def parse(self, raw: object, system: str, examples: bool = False) -> float | str | None:
         """The metric value of what was typed, or InputError naming this field.
 
-        Blank: None when optional; a limit's or option's standard value; the example
-        (the declared default) only with ``examples``; else an error.
+        Blank: the example (the declared default) with ``examples``, also of an optional
+        field that has one; else None when optional; a limit's or option's standard value;
+        else an error.
         """
         if self.is_flag:
             return _parse_flag(raw, self.key)
         if _blank(raw):
-            if self.optional:
+            if self.optional and not (examples and self.default is not None):
                 return None
             if self.default is None or not (examples or self.blank_takes_default):
                 raise InputError(self.key, "{label} is needed", label=Q(self.label, "text"))
@@ -621,8 +622,8 @@ class Tool:
             except InputError as err:
                 errors.append(err)
                 continue
-            if (examples and _blank(raw.get(f.key)) and not f.optional and not f.is_flag
-                    and not f.blank_takes_default):
+            if (examples and _blank(raw.get(f.key)) and values[f.key] is not None
+                    and not f.is_flag and not f.blank_takes_default):
                 shown = Q(values[f.key], f.quantity if f.is_number else "text")
                 notices.append(InputError(f.key, "{label}: the example {value}, not a reading",
                                           label=Q(f.label, "text"), value=shown))

@@ -9,7 +9,7 @@ import { showBackLink, showReadings, startChecklists } from "./checklists.js";
 import { startFinder, used } from "./finder.js";
 import { renderLog, startLog } from "./log-view.js";
 import { startBugReports } from "./bug-reports.js";
-import { migrateOldLog, onKitChange, startKit } from "./kit.js";
+import { migrateOldLog, onKitChange, problemWords, startKit } from "./kit.js";
 import { onMachineChange, startMachinePick } from "./machine-pick.js";
 import { fillVisible, refillAll, startCardFill } from "./card-fill.js";
 import { reexpressCard, renderMachines, showCard, startMachines } from "./machines-view.js";
@@ -33,8 +33,22 @@ const DRAW = {
   visit: () => showVisit(),
 };
 
+// A view drawn from the database; when the database fails, the view says why at its top
+// instead of looking empty.
+function draw(view, param) {
+  const drawing = DRAW[view.dataset.view];
+  if (!drawing) return;
+  let note = view.querySelector(":scope > [data-view-problem]");
+  Promise.resolve().then(() => drawing(param)).then(() => note?.remove(), (err) => {
+    note ??= Object.assign(document.createElement("p"), { className: "problem", role: "alert" });
+    note.dataset.viewProblem = "";
+    note.textContent = "The saved machines and readings cannot be shown: " + problemWords(err) + ".";
+    view.prepend(note);
+  });
+}
+
 async function showView(view, param) {
-  DRAW[view.dataset.view]?.(param);
+  draw(view, param);
   if (view.dataset.view.startsWith("tool/")) used(view.dataset.view.slice(5));
   if (view.classList.contains("tool")) showBackLink(view);
   if (view.classList.contains("checklist")) showReadings(view);
@@ -66,14 +80,14 @@ async function ready() {
   await refillAll();
   computeVisible();
   const view = shownView();
-  if (view && DRAW[view.dataset.view]) DRAW[view.dataset.view](view.dataset.param);
+  if (view) draw(view, view.dataset.param);
 }
 
 startUnits(calculator, async () => {
   await fillVisible();
   await reexpressCard(currentUnits());
   const view = shownView();
-  if (view && DRAW[view.dataset.view] && view.dataset.view !== "card") DRAW[view.dataset.view](view.dataset.param);
+  if (view && view.dataset.view !== "card") draw(view, view.dataset.param);
   computeVisible();
 });
 startForms(calculator);

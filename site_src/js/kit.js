@@ -33,6 +33,11 @@ export function storageProblem(err) {
   return "this device refused to store it (" + ((err && err.message) || name || "no reason given") + ")";
 }
 
+// What went wrong, in words: the device's storage refusing (a DOMException, or no database
+// at all) in storageProblem's words, anything else by its own message.
+export const problemWords = (err) => (err instanceof DOMException || !("indexedDB" in globalThis)
+  ? storageProblem(err) : (err && err.message) || String(err));
+
 const stored = (record) => ({ ...record, at: Date.parse(record.time) });
 const plain = ({ at, ...record }) => record; // calc's record, without the page's index field
 

@@ -2,7 +2,7 @@
 // the demo plant, export and import; and the card form, to make a machine or edit its card.
 import { LEVEL_WORD, el } from "./answers.js";
 import { allMachines, allReadings, ask, digests, exportAll, importFile, loadDemo, localStamp,
-  machine, redigest, removeDemo, saveMachine, storageProblem, today } from "./kit.js";
+  machine, redigest, removeDemo, saveMachine, problemWords, today } from "./kit.js";
 import { chooseMachine } from "./machine-pick.js";
 import { go } from "./routing.js";
 import { device, download } from "./store.js";
@@ -64,7 +64,7 @@ const stamp = () => new Date().toISOString().slice(0, 10);
 
 function startListActions() {
   const act = (name, work) => document.querySelector(`[data-kit="${name}"]`).addEventListener("click", async () => {
-    try { await work(); } catch (err) { status.textContent = err.message; }
+    try { await work(); } catch (err) { status.textContent = "Not done: " + problemWords(err) + "."; }
   });
   act("demo-load", async () => {
     status.textContent = "Loading the demo plant…";
@@ -94,7 +94,7 @@ function startListActions() {
         + (added.refused ? ` ${added.refused} reading(s) refused and left out: ${added.reasons.join("; ")}.` : "");
     } catch (err) {
       status.textContent = "Import failed, nothing was added: " + (err instanceof SyntaxError
-        ? "the file is not JSON (a Sumpside export is a .json file; use UTF-8 or UTF-16 text)" : err.name && err.name !== "Error" ? storageProblem(err) : err.message);
+        ? "the file is not JSON (a Sumpside export is a .json file; use UTF-8 or UTF-16 text)" : problemWords(err));
     }
     event.target.value = "";
   });
