@@ -296,6 +296,15 @@ def _finite_number(value: object) -> bool:
     return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
 
 
+def _is_tool(tool_id: str) -> bool:
+    """Whether a tool of this version has this id (a lookup: an import checks thousands)."""
+    try:
+        registry.get(tool_id)
+    except InputError:
+        return False
+    return True
+
+
 def checked_head(record: object, kind: str, fmt: str, version: int = VERSION,
                  id_max: int = ID_MAX_CHARS) -> dict:
     """What every document from outside calc begins with, checked: a record of `fmt` and
@@ -356,7 +365,7 @@ def checked_reading(record: object) -> dict:
     # A reading kept as an earlier build saved it may name a tool since retired: it is
     # shown as it was saved, so it travels as it is.
     if not isinstance(tool, str) or len(tool) > ID_MAX_CHARS or (
-            tool not in registry.tools() and record.get("as_saved") is None):
+            record.get("as_saved") is None and not _is_tool(tool)):
         raise InputError("tool", "is not a tool of this version")
     checked_time(record.get("time"))
     inputs = record.get("inputs")

@@ -269,20 +269,24 @@ def export_file(stored: dict[str, list], stamp: str) -> dict:
 
 
 def deepest(data: object, most: int) -> int:
-    """How deep `data` nests (a scalar is 0), counted without recursion and given up past
-    `most`, so that no nesting however deep costs more than its size."""
-    found, stack = 0, [(data, 1)]
-    while stack:
-        value, depth = stack.pop()
-        if isinstance(value, dict):
-            value = value.values()
-        elif not isinstance(value, list):
-            continue
-        found = max(found, depth)
+    """How deep `data` nests (a scalar is 0), level by level without recursion and given up
+    past `most`, so that no nesting however deep costs more than its size.
+
+    >>> deepest({"a": [1, {"b": "text"}]}, 8), deepest([[[[[]]]]], 3)
+    (3, 4)
+    """
+    level, depth = [data], 0
+    while True:
+        level = [v for v in level if type(v) in (dict, list)]
+        if not level:
+            return depth
+        depth += 1
         if depth > most:
             return depth
-        stack.extend((v, depth + 1) for v in value if isinstance(v, (dict, list)))
-    return found
+        deeper = []
+        for value in level:
+            deeper.extend(value.values() if type(value) is dict else value)
+        level = deeper
 
 
 def checked_doc(doc: object, kind: str) -> dict:
