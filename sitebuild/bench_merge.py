@@ -10,7 +10,7 @@ checking B's file (`checked_export`) and merging it (`merge`). Medians of --repe
 Nothing here asserts a time; the target (issue 16) is under 2 s on the phone profile in
 the browser, measured there.
 
-    python -m sitebuild.bench_merge [--repeat N]
+    python -m sitebuild.bench_merge [--repeat N]      (from the repository's root)
 """
 
 from __future__ import annotations
@@ -18,16 +18,10 @@ from __future__ import annotations
 import argparse
 import json
 import statistics
-import sys
 import time
 from datetime import date, datetime, timedelta, timezone
-from pathlib import Path
 
-ROOT = Path(__file__).resolve().parent.parent
-if str(ROOT) not in sys.path:
-    sys.path.insert(0, str(ROOT))
-
-from calc.machines import checkmarks, demo, records, revisions, sync  # noqa: E402
+from calc.machines import checkmarks, demo, records, revisions, sync
 
 MACHINES = 20
 SHARED = 8_000

@@ -182,7 +182,8 @@ def _side_revs(doc: dict | None) -> list[str] | None:
 
 def _count(counts: dict, kind: str, mine: dict | None, merged: dict) -> None:
     """Count one changed document as this phone sees it: added, updated or deleted."""
-    dead, was_dead = merged.get("deleted") is True, mine is not None and mine.get("deleted") is True
+    dead = merged.get("deleted") is True
+    was_dead = mine is not None and mine.get("deleted") is True
     if mine is None:
         action = None if dead else "added"  # a marker of a record this phone never had
     elif dead:

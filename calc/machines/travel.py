@@ -80,8 +80,8 @@ def merge_file(request: dict) -> dict:
             "message": sync.said({**counts, "refused": found["refused"]}, merged["conflicts"]),
             "open_conflicts": sum(sync.to_settle(doc) for doc in still if isinstance(doc, dict))
             + sum(sync.to_settle(doc) for docs in put.values() for doc in docs),
-            "redigest": sorted({doc["id"] for doc in put["machines"]}
-                               | {doc["machine"] for doc in put["readings"] if doc.get("machine")}),
+            "redigest": sorted({doc["id"] for doc in put["machines"]} | {
+                doc["machine"] for doc in put["readings"] if doc.get("machine")}),
             "version": found["version"], "migrated": found["migrated"]}
 
 

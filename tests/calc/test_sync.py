@@ -220,9 +220,11 @@ def test_two_card_edits_made_apart_keep_both_the_higher_revision_shown():
 
 def test_two_note_edits_made_apart_show_the_later_one():
     reading = _reading()
-    early = _edit(reading, T2, note="oil looked hazy")
-    late = _edit(_edit(reading, T1, note="x"), T3, note="oil clear after an hour")
-    for merged in (sync.resolve([early, late], "readings"), sync.resolve([late, early], "readings")):
+    # Two edits on one phone (N 3), one later edit on the other (N 2): the later one shows.
+    early = _edit(_edit(reading, T1, note="x"), T2, note="oil looked hazy")
+    late = _edit(reading, T3, note="oil clear after an hour")
+    for sides in ([early, late], [late, early]):
+        merged = sync.resolve(sides, "readings")
         assert merged["note"] == "oil clear after an hour" and merged["conflicts"] == [early]
 
 
