@@ -20,7 +20,7 @@ ROOT = Path(__file__).resolve().parent.parent
 if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
-from calc.machines import card, condition, demo, records  # noqa: E402
+from calc.machines import card, condition, demo, records, revisions  # noqa: E402
 
 MACHINES = 200
 READINGS = 20_000
@@ -69,9 +69,9 @@ def make_records(today: date) -> tuple[list[dict], list[dict], str]:
     machines = []
     for i in range(MACHINES):
         card = {**cards[i % len(cards)], "name": f"Bench machine {i + 1:03d}"}
-        machines.append({"format": records.MACHINE, "version": records.VERSION,
-                         "id": records.new_id(), "card": card,
-                         "updated": f"{today.isoformat()}T08:00:00+00:00"})
+        machines.append(revisions.first_rev({
+            "format": records.MACHINE, "version": records.VERSION, "id": records.new_id(),
+            "card": card, "updated": f"{today.isoformat()}T08:00:00+00:00"}))
     big = machines[0]["id"]
     readings = []
     start = datetime.combine(today, datetime.min.time(), timezone.utc) - timedelta(days=3 * 365)
@@ -79,8 +79,10 @@ def make_records(today: date) -> tuple[list[dict], list[dict], str]:
         owner = big if n < BIG else machines[1 + n % (MACHINES - 1)]["id"]
         template = templates[n % len(templates)]
         when = start + timedelta(minutes=(n * 78839) % (3 * 365 * 24 * 60))
-        readings.append({**template, "id": records.new_id(), "machine": owner, "demo": False,
-                         "time": when.isoformat()})
+        # Each copy is revision 1 of its own content (never the template's rev).
+        readings.append(revisions.first_rev({
+            **template, "id": records.new_id(), "machine": owner, "demo": False,
+            "time": when.isoformat(), "updated": when.isoformat()}))
     return machines, readings, big
 
 

@@ -24,7 +24,7 @@ from ..kernel.answer import present
 from ..kernel.errors import InputError
 from ..kernel.result import LEVELS, Q
 from . import card as cards
-from . import condition, demo, records, report
+from . import condition, demo, records, report, travel
 
 SLIM_KEYS = ("id", "machine", "tool", "time", "tracked", "level")
 
@@ -55,10 +55,12 @@ def _machine(request: dict, required: bool = True) -> dict | None:
 
 
 def _list(request: dict, key: str) -> list[dict]:
+    """The records of a list member; deletion markers (calc.machines.revisions) stored
+    beside them are no records to show, and are left out."""
     found = request.get(key)
     if not isinstance(found, list):
         raise InputError(key, "is a list of records")
-    return [r for r in found if isinstance(r, dict)]
+    return [r for r in found if isinstance(r, dict) and r.get("deleted") is not True]
 
 
 def card_form(request: dict) -> dict:
@@ -68,11 +70,17 @@ def card_form(request: dict) -> dict:
 
 def card_check(request: dict) -> dict:
     """A typed card (``"card"``, in the reader's units) checked and made a machine record
-    (``"id"`` kept when editing one, ``"time"`` its local time with offset)."""
+    (``"id"`` kept when editing one, ``"time"`` its local time with offset). Editing a
+    stored machine, ``"previous"`` is its record: the answer is then its next revision
+    (the stored one itself when the card did not change), so the edit travels as one."""
     raw = request.get("card")
-    machine = records.new_machine(raw if isinstance(raw, dict) else None, _system(request),
-                                  request.get("time"), request.get("id") or None)
-    return {"ok": True, "machine": machine}
+    previous = request.get("previous")
+    if previous is None:
+        return {"ok": True, "machine": records.new_machine(
+            raw if isinstance(raw, dict) else None, _system(request), request.get("time"),
+            request.get("id") or None)}
+    return {"ok": True, "machine": _revised_card(previous, raw, _system(request),
+                                                 request.get("time"))}
 
 
 def card_view(request: dict) -> dict:
@@ -146,9 +154,16 @@ def to_card(request: dict) -> dict:
     card = {k: v for k, v in machine["card"].items() if k != f.binds}
     if value is not None:
         card[f.binds] = value
-    # The card's own field and cross-checks judge the value again (metric in, metric out).
-    return {"ok": True, "machine": {**machine, "card": cards.parse(card, "metric"),
-                                    "updated": records.checked_time(request.get("time"))}}
+    # The card's own field and cross-checks judge the value again (metric in, metric out);
+    # the record that comes back is the stored one's next revision.
+    return {"ok": True, "machine": _revised_card(request["machine"], card, "metric",
+                                                 request.get("time"))}
+
+
+def _revised_card(stored: dict, card: dict, system: str, stamp: object) -> dict:
+    """A stored machine record's next revision with `card` (typed in `system`)."""
+    return travel.revise({"doc": stored, "changes": {"card": card}, "time": stamp,
+                          "units": system})["doc"]
 
 
 def run(request: dict) -> dict:
@@ -200,8 +215,8 @@ def reading(request: dict) -> dict:
     """A stored reading shown now, in the reader's units: ``{"view"}`` (`records.view`;
     the view's own ``"ok"`` is false for a reading kept as saved)."""
     record = request.get("record")
-    if not isinstance(record, dict):
-        raise InputError("record", "is a reading record")
+    if not isinstance(record, dict) or record.get("deleted") is True:
+        raise InputError("record", "is a reading record (not a deletion marker)")
     return {"ok": True, "view": records.view(record, _system(request))}
 
 
@@ -363,6 +378,7 @@ OPS = {
     "to-card": to_card, "run": run, "save": save, "reading": reading, "readings": readings,
     "machine-page": machine_page, "machines": machine_list, "visit": visit, "csv": csv,
     "demo": demo_plant, "migrate": migrate, "digest": digest,
+    **travel.OPS,
 }
 
 

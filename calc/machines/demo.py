@@ -18,6 +18,7 @@ from __future__ import annotations
 from datetime import date, datetime, time, timedelta, timezone
 
 from .records import new_machine, new_reading
+from .revisions import first_rev
 
 PLANT = "Alderbrook Components (demo plant)"
 # The demo plant's clock: one hour east of UTC (an invented site, like everything here).
@@ -126,15 +127,14 @@ def plant(today: date) -> dict:
     """The demo plant as records: ``{"machines", "readings"}``, every one marked demo."""
     made = _cards(today)
     stamp = _stamp(today, 8)
-    machines = [new_machine(card, "metric", stamp) for card in made]
+    machines = [first_rev({**new_machine(card, "metric", stamp), "demo": True})
+                for card in made]
     readings = []
     for machine, history in zip(machines, (_PRESS, _MILL, _CRANE)):
-        machine["demo"] = True
         for days, hour, tool_id, typed in history:
             # Demo readings give what each visit measured; the rest are the tools' examples.
             record = new_reading(tool_id, typed, "metric", machine,
                                  _stamp(today - timedelta(days=days), hour),
                                  examples=True)["record"]
-            record["demo"] = True
-            readings.append(record)
+            readings.append(first_rev({**record, "demo": True}))
     return {"machines": machines, "readings": readings}

@@ -7,7 +7,13 @@ holds what calc needs to answer it again, never display text:
     {"format": "sumpside-reading", "version": 1, "id", "machine": machine id or None,
      "tool", "inputs": {key: metric value as parsed}, "from_card": [keys taken from the
      card], "calc": calc's version, "time": ISO 8601 with the local offset, "note",
-     "tracked": {followed quantity: metric value}, "level"}
+     "tracked": {followed quantity: metric value}, "level",
+     "updated", "rev", "history"}
+
+Both are documents (calc.machines.revisions): ``rev`` and ``history`` say which revision
+this is and which it came from, ``updated`` when it was made (a reading's is its time
+until its note is edited). They keep version 1: the members are additions that an
+earlier build's import leaves out, so a file from this build still reads there.
 
 ``tracked`` and ``level`` are what the tool answered when the reading was saved, kept so a
 machine page with a thousand readings draws its trends without running a tool again;
@@ -38,6 +44,7 @@ from ..kernel.errors import InputError
 from ..kernel.result import Q, Result
 from . import card as cards
 from .condition import when
+from .revisions import TOMBSTONE_KEEPS, checked_meta, first_rev
 
 READING = "sumpside-reading"
 MACHINE = "sumpside-machine"
@@ -57,9 +64,10 @@ def checked_time(stamp: object) -> str:
 
 
 def new_machine(raw: dict, system: str, stamp: str, machine_id: str | None = None) -> dict:
-    """A machine record from a typed card; InputError names each bad field."""
-    return {"format": MACHINE, "version": VERSION, "id": machine_id or new_id(),
-            "card": cards.parse(raw, system), "updated": checked_time(stamp)}
+    """A machine record from a typed card, as revision 1 (calc.machines.revisions);
+    InputError names each bad field."""
+    return first_rev({"format": MACHINE, "version": VERSION, "id": machine_id or new_id(),
+                      "card": cards.parse(raw, system), "updated": checked_time(stamp)})
 
 
 def tracked_values(found: registry.Tool, values: dict, result: Result) -> dict[str, float]:
@@ -103,8 +111,9 @@ def new_reading(tool_id: str, raw: dict, system: str, machine: dict | None, stam
               "machine": machine["id"] if machine else None, "tool": found.id,
               "inputs": values, "from_card": from_card, "calc": __version__,
               "time": checked_time(stamp), "note": note,
-              "tracked": tracked_values(found, values, result), "level": result.level}
-    return {"record": record, "result": result, "tool": found}
+              "tracked": tracked_values(found, values, result), "level": result.level,
+              "updated": checked_time(stamp)}
+    return {"record": first_rev(record), "result": result, "tool": found}
 
 
 def stored_inputs(found: registry.Tool, inputs: dict) -> dict:
@@ -244,7 +253,7 @@ def _migrated(entry: dict, machine: dict | None) -> dict:
         record = made["record"]
         record["machine"] = machine["id"] if machine else None
         record["migrated"] = True
-        return record
+        return first_rev(record)
     except (KeyError, InputError, ValueError, ArithmeticError):
         pass
     record = {"format": READING, "version": VERSION, "id": new_id(),
@@ -257,8 +266,9 @@ def _migrated(entry: dict, machine: dict | None) -> dict:
                            "text": {str(k): str(v) for k, v in (entry.get("text") or {}).items()},
                            "verdicts": [str(v) for v in entry.get("verdicts") or []],
                            "inputs": {str(k): str(v) for k, v in inputs.items()},
-                           "units": system, "level": entry.get("level")}}
-    return record
+                           "units": system, "level": entry.get("level")},
+              "updated": stamp}
+    return first_rev(record)
 
 
 def _old_tracked(entry: dict, system: str) -> dict:
@@ -286,26 +296,76 @@ def _finite_number(value: object) -> bool:
     return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
 
 
+def _is_tool(tool_id: str) -> bool:
+    """Whether a tool of this version has this id (a lookup: an import checks thousands)."""
+    try:
+        registry.get(tool_id)
+    except InputError:
+        return False
+    return True
+
+
+def checked_head(record: object, kind: str, fmt: str, version: int = VERSION,
+                 id_max: int = ID_MAX_CHARS) -> dict:
+    """What every document from outside calc begins with, checked: a record of `fmt` and
+    `version` with an id, and its revision members (`revisions.checked_meta`). Returns
+    ``{"format", "version", "id", ...revision members}``."""
+    if not isinstance(record, dict):
+        raise InputError(kind, "is not a record")
+    if record.get("format") != fmt or record.get("version") != version:
+        raise InputError("format", "is not a {kind} of this version ({format} {version})",
+                         kind=Q(kind, "text"), format=Q(fmt, "text"),
+                         version=Q(float(version), "count"))
+    value = record.get("id")
+    if not isinstance(value, str) or not 0 < len(value) <= id_max:
+        raise InputError("id", "is not an id (text of 1 to {most} characters)",
+                         most=Q(float(id_max), "count"))
+    return {"format": fmt, "version": version, "id": value, **checked_meta(record)}
+
+
+def tombstone(head: dict, record: dict) -> dict:
+    """A deletion marker's clean copy: its head and the members a marker keeps, checked
+    already by its kind's checker."""
+    return {**{k: record[k] for k in TOMBSTONE_KEEPS if k in record}, **head}
+
+
+def checked_machine_id(record: dict) -> str | None:
+    machine = record.get("machine")
+    if machine is not None and (not isinstance(machine, str) or len(machine) > ID_MAX_CHARS):
+        raise InputError("machine", "is not a machine's id")
+    return machine
+
+
+def checked_machine(record: object) -> dict:
+    """A machine record from outside calc (a file, a sync), checked: its head, its card
+    parsed again by `card.parse` (every bad field named), its ``updated`` time, as a clean
+    copy of only those members (and ``demo``); a deletion marker as a marker."""
+    head = checked_head(record, "machine", MACHINE)
+    if head.get("deleted"):
+        return tombstone(head, {})
+    checked_time(head.get("updated"))
+    clean = {"format": MACHINE, "version": VERSION, "id": head["id"],
+             "card": cards.parse(record.get("card"), "metric"), **head}
+    if record.get("demo") is True:
+        clean["demo"] = True
+    return clean
+
+
 def checked_reading(record: object) -> dict:
     """A reading record from outside calc checked against the record's declared shape (its
     members, their types, sizes and times, every number finite), as a clean copy of only
     those members; InputError with the reason otherwise. It is computed again when shown,
-    so a record that fits the shape but not today's tool still shows what it kept."""
-    if not isinstance(record, dict):
-        raise InputError("reading", "is not a record")
-    if record.get("format") != READING or record.get("version") != VERSION:
-        raise InputError("format", "is not a reading of this version ({format} {version})",
-                         format=Q(READING, "text"), version=Q(float(VERSION), "count"))
-    for key in ("id",):
-        value = record.get(key)
-        if not isinstance(value, str) or not 0 < len(value) <= ID_MAX_CHARS:
-            raise InputError(key, "is not an id (text of 1 to {most} characters)",
-                             most=Q(float(ID_MAX_CHARS), "count"))
-    machine = record.get("machine")
-    if machine is not None and (not isinstance(machine, str) or len(machine) > ID_MAX_CHARS):
-        raise InputError("machine", "is not a machine's id")
+    so a record that fits the shape but not today's tool still shows what it kept. A
+    deletion marker keeps its head and its machine only."""
+    head = checked_head(record, "reading", READING)
+    machine = checked_machine_id(record)
+    if head.get("deleted"):
+        return tombstone(head, {"machine": machine})
     tool = record.get("tool")
-    if not isinstance(tool, str) or tool not in registry.tools():
+    # A reading kept as an earlier build saved it may name a tool since retired: it is
+    # shown as it was saved, so it travels as it is.
+    if not isinstance(tool, str) or len(tool) > ID_MAX_CHARS or (
+            record.get("as_saved") is None and not _is_tool(tool)):
         raise InputError("tool", "is not a tool of this version")
     checked_time(record.get("time"))
     inputs = record.get("inputs")
@@ -331,10 +391,10 @@ def checked_reading(record: object) -> dict:
     level = record.get("level")
     if level not in (None, "ok", "watch", "act"):
         raise InputError("level", "is not ok, watch or act")
-    clean = {"format": READING, "version": VERSION, "id": record["id"], "machine": machine,
+    clean = {"format": READING, "version": VERSION, "id": head["id"], "machine": machine,
              "tool": tool, "inputs": dict(inputs), "from_card": list(from_card),
              "calc": str(record.get("calc", ""))[:40], "time": record["time"], "note": note,
-             "tracked": {k: float(v) for k, v in tracked.items()}, "level": level}
+             "tracked": {k: float(v) for k, v in tracked.items()}, "level": level, **head}
     for flag in ("migrated", "demo"):
         if record.get(flag) is True:
             clean[flag] = True
