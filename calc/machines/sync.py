@@ -103,6 +103,8 @@ KINDS = {
 }
 BY_FORMAT = {k.format: name for name, k in KINDS.items()}
 ACTIONS = ("added", "updated", "deleted", "refused")
+# A record of each kind named by its place in a file: "reading 2: ...".
+ONE = {"machines": "card", "readings": "reading", "checks": "checklist result"}
 
 # What a merge says, per action and kind: (one, several). Whole phrases, never nouns
 # stitched to verbs, so each reads right (and can be put into another language whole).
@@ -263,7 +265,7 @@ def export_file(stored: dict[str, list], stamp: str) -> dict:
             except (InputError, TypeError, ValueError) as err:
                 left_out += 1
                 if len(reasons) < REASONS_MAX:
-                    reasons.append(f"{kind} {place}: {err}")
+                    reasons.append(f"{ONE[kind]} {place}: {err}")
     return {"file": {"format": EXPORT, "version": EXPORT_VERSION,
                      "exported": records.checked_time(stamp), **out},
             "left_out": left_out, "reasons": reasons}
@@ -355,7 +357,7 @@ def checked_export(data: object, stamp: str | None = None) -> dict:
             except (InputError, TypeError, ValueError) as err:
                 refused[kind] += 1
                 if len(reasons) < REASONS_MAX:
-                    reasons.append(f"{kind} {place}: {err}")
+                    reasons.append(f"{ONE[kind]} {place}: {err}")
     exported = data.get("exported")
     return {"version": version, "migrated": version == 1,
             "exported": exported if isinstance(exported, str) and when(exported) else None,

@@ -1,6 +1,10 @@
 // The machine kit on this device: machines, readings and digests in the database (js/db.js),
 // made and checked by calc (calc.machines.api, through the worker). Nothing here computes:
 // records come from calc and go back to calc as they were stored.
+//
+// Records travel between phones (calc.machines.sync): each has a revision, and a deletion is
+// kept as a marker ({id, rev, deleted: true, ...}) so that it travels too. The stores hold the
+// markers; everything shown reads only the live records.
 import { getAll, getOne, transact } from "./db.js";
 
 let calculator = null;
@@ -41,11 +45,20 @@ export const problemWords = (err) => (err instanceof DOMException || !("indexedD
 const stored = (record) => ({ ...record, at: Date.parse(record.time) });
 const plain = ({ at, ...record }) => record; // calc's record, without the page's index field
 
-export const allMachines = () => getAll("machines");
-export const machine = (id) => (id ? getOne("machines", id) : Promise.resolve(undefined));
+const live = (docs) => docs.filter((d) => d && !d.deleted);
+const fail = (answer) => new Error(answer.errors.map((e) => (e.field ? e.field + ": " : "") + e.message).join("; "));
+
+export const allMachines = async () => live(await getAll("machines"));
+export const machine = async (id) => {
+  const found = id ? await getOne("machines", id) : undefined;
+  return found && !found.deleted ? found : undefined;
+};
 export const digests = async () => Object.fromEntries((await getAll("digests")).map(({ machine: id, ...d }) => [id, d]));
-export const readingsOf = async (id) => (await getAll("readings", "machine", id)).map(plain);
-export const allReadings = async () => (await getAll("readings")).map(plain);
+export const readingsOf = async (id) => live(await getAll("readings", "machine", id)).map(plain);
+export const allReadings = async () => live(await getAll("readings")).map(plain);
+// Every stored document, deletion markers too: what a merge or an export needs.
+const everything = async (checks) => ({ machines: await getAll("machines"),
+  readings: (await getAll("readings")).map(plain), checks });
 
 // A machine record calc made (card-check, to-card); its digest follows its card.
 export async function saveMachine(record) {
@@ -54,12 +67,18 @@ export async function saveMachine(record) {
   changed();
 }
 
+// A machine and its readings deleted: each becomes calc's deletion marker, so that the
+// deletion reaches the other phones with the next file or sync.
 export async function deleteMachine(id) {
-  await transact(["machines", "readings", "digests"], "readwrite", async (s, done) => {
-    const keys = await done(s.readings.index("machine").getAllKeys(id));
-    for (const key of keys) s.readings.delete(key);
+  const record = await machine(id);
+  if (!record) return;
+  const marked = await ask("delete", { docs: [record, ...(await readingsOf(id))], time: localStamp() });
+  if (!marked.ok) throw fail(marked);
+  await transact(["machines", "readings", "digests"], "readwrite", (s) => {
+    for (const doc of marked.docs) {
+      if (doc.format === record.format) s.machines.put(doc); else s.readings.put(stored(doc));
+    }
     s.digests.delete(id);
-    s.machines.delete(id);
   });
   changed();
 }
@@ -83,7 +102,9 @@ export async function redigest(id) {
 }
 
 export async function deleteReading(record) {
-  await transact(["readings"], "readwrite", (s) => { s.readings.delete(record.id); });
+  const marked = await ask("delete", { doc: record, time: localStamp() });
+  if (!marked.ok) throw fail(marked);
+  await transact(["readings"], "readwrite", (s) => { s.readings.put(stored(marked.doc)); });
   await redigest(record.machine);
   changed();
 }
@@ -106,53 +127,45 @@ export async function loadDemo() {
   return plant.machines.length;
 }
 
+// The demo plant goes for good (no deletion markers: nothing of it needs to travel).
 export async function removeDemo() {
-  for (const m of (await allMachines()).filter((m) => m.demo)) await deleteMachine(m.id);
-  // Readings of the demo saved without a machine, if any, go too.
-  const strays = (await getAll("readings")).filter((r) => r.demo);
-  if (strays.length) await transact(["readings"], "readwrite", (s) => { for (const r of strays) s.readings.delete(r.id); });
+  const demo = new Set((await getAll("machines")).filter((m) => m.demo).map((m) => m.id));
+  const readings = (await getAll("readings")).filter((r) => r.demo || demo.has(r.machine));
+  await transact(["machines", "readings", "digests"], "readwrite", (s) => {
+    for (const r of readings) s.readings.delete(r.id);
+    for (const id of demo) { s.machines.delete(id); s.digests.delete(id); }
+  });
   changed();
 }
 
-// Everything on this device as one file, to keep or to move to another phone.
-export async function exportAll() {
-  return { format: "sumpside-export", version: 1, exported: localStamp(),
-    machines: await allMachines(), readings: await allReadings() };
+// Everything on this device as one file (calc's export, version 2: machines, readings and
+// the checklist results `checks`, deletion markers included), to keep or to move to another phone.
+export async function exportAll(checks) {
+  const made = await ask("export", { ...(await everything(checks)), time: localStamp() });
+  if (!made.ok) throw fail(made);
+  return made.file;
 }
 
-// A file of exportAll (merged by id: nothing on this device is lost), or an earlier build's
-// log export (a list of entries, migrated by calc). Returns what was added.
-export async function importFile(data) {
-  if (Array.isArray(data)) {
-    const moved = await ask("migrate", { entries: data, time: localStamp() });
-    if (!moved.ok) throw new Error(moved.errors.map((e) => e.message).join("; "));
-    await keepAll(moved);
-    return { machines: moved.machines.length, readings: moved.readings.length };
-  }
-  if (!data || data.format !== "sumpside-export" || !Array.isArray(data.machines) || !Array.isArray(data.readings)) {
-    throw new Error("the file is not a Sumpside export");
-  }
-  const known = new Set((await getAll("readings")).map((r) => r.id));
-  const knownMachines = new Set((await allMachines()).map((m) => m.id));
-  // Every card from a file is checked by calc before it is kept; one that fails is named.
-  const machines = [];
-  for (const m of data.machines.filter((m) => m && typeof m.id === "string" && !knownMachines.has(m.id))) {
-    const checked = await ask("card-check", { card: m.card, units: "metric", id: m.id, time: m.updated || localStamp() });
-    if (!checked.ok) throw new Error(`the card of ${JSON.stringify(m.card && m.card.name)}: `
-      + checked.errors.map((e) => `${e.field}: ${e.message}`).join("; "));
-    machines.push(m.demo ? { ...checked.machine, demo: true } : checked.machine);
-  }
-  // Every reading is checked by calc against the record's shape before it is kept; the
-  // refused ones are counted and the first reasons said.
-  const checked = await ask("check-readings", { readings: data.readings });
-  if (!checked.ok) throw new Error(checked.errors.map((e) => e.message).join("; "));
-  const readings = checked.readings.filter((r) => !known.has(r.id));
-  await keepAll({ machines, readings });
-  for (const id of new Set([...machines.map((m) => m.id), ...readings.map((r) => r.machine).filter(Boolean)])) {
-    await redigest(id);
-  }
+// A file from another phone (or this one), an earlier version's export, or an earlier build's
+// log: checked whole by calc, then merged with what is here (calc.machines.sync: the newer
+// revision wins, nothing on this device is lost, a card edited on both phones is kept both
+// ways to settle). Only calc's `put` is written, in one transaction: a file refused whole
+// changes nothing. Resolves with calc's answer (its `message` says what it did; `put.checks`
+// are the checklist results for the page to keep).
+export async function importFile(data, checks) {
+  const merged = await ask("merge", { local: await everything(checks), incoming: data, time: localStamp() });
+  if (!merged.ok) throw fail(merged);
+  await keepAll({ machines: merged.put.machines, readings: merged.put.readings });
+  for (const id of merged.redigest) await redigest(id);
   changed();
-  return { machines: machines.length, readings: readings.length, refused: checked.refused, reasons: checked.reasons };
+  return merged;
+}
+
+// A card edited on two phones apart: the side the user chose becomes the card everywhere.
+export async function settleCard(record, rev) {
+  const settled = await ask("settle", { doc: record, rev, time: localStamp() });
+  if (!settled.ok) throw fail(settled);
+  await saveMachine(settled.doc);
 }
 
 // The earlier build's log (store "entries") moved into machines and readings once, by calc;

@@ -74,6 +74,7 @@ export async function renderLog() {
   showStorage();
   const list = document.querySelector("[data-log-list]");
   const more = document.querySelector('[data-log="more"]');
+  // Deletion markers carry no time, so the "at" index never holds them.
   const records = (await newestReadings(0, shownCount + 1)).map(({ at, ...r }) => r);
   const moved = await getOne("meta", "log-migrated");
   if (moved && moved.readings) {

@@ -2,7 +2,7 @@
 // and verdict of each followed quantity, the tools that take a reading filled from the card,
 // the trends against their limits (SVG drawn by calc), the readings and the card.
 import { LEVEL_WORD, el } from "./answers.js";
-import { allMachines, ask, deleteMachine, machine, readingsOf, today } from "./kit.js";
+import { allMachines, ask, deleteMachine, machine, readingsOf, settleCard, today } from "./kit.js";
 import { chooseMachine, currentMachine } from "./machine-pick.js";
 import { renderReadings } from "./log-view.js";
 import { go } from "./routing.js";
@@ -31,12 +31,51 @@ function trendFigure(trend) {
   return figure;
 }
 
+// A card changed on two phones apart (calc kept both sides): what differs, and the choice.
+// The side chosen becomes the card on every phone it travels to.
+async function showConflicts(record) {
+  const box = part("conflict");
+  const sides = record.conflicts || [];
+  box.hidden = !sides.length;
+  if (!sides.length) { box.replaceChildren(); return; }
+  const button = (text, work) => {
+    const b = el("button", { type: "button", textContent: text });
+    b.addEventListener("click", () => work().catch((err) => { box.append(el("p", { className: "problem", textContent: "Not settled: " + err.message })); }));
+    return b;
+  };
+  const lines = async (doc) => {
+    const shown = await ask("card-view", { machine: doc, units: currentUnits() });
+    return new Map((shown.ok ? shown.summary : []).map((l) => [l.label, l.text]));
+  };
+  const mine = await lines(record);
+  const parts = [el("h2", { textContent: "This card was changed on two phones" })];
+  for (const other of sides) {
+    if (other.deleted) {
+      parts.push(el("p", { textContent: "Another phone deleted this machine while this one changed its card." }),
+        el("div", { className: "actions" }, button("Keep the machine", () => settleCard(record, record.rev)),
+          button("Delete it here too", () => deleteMachine(record.id))));
+      continue;
+    }
+    const theirs = await lines(other);
+    const differ = [...new Set([...mine.keys(), ...theirs.keys()])].filter((label) => mine.get(label) !== theirs.get(label));
+    parts.push(el("table", { className: "condition" },
+      el("thead", {}, el("tr", {}, el("th", { textContent: "Card field" }),
+        el("th", { textContent: `Shown now (saved ${new Date(record.updated).toLocaleString()})` }),
+        el("th", { textContent: `Other version (saved ${new Date(other.updated).toLocaleString()})` }))),
+      el("tbody", {}, ...differ.map((label) => el("tr", {}, el("th", { scope: "row", textContent: label }),
+        el("td", { textContent: mine.get(label) || "–" }), el("td", { textContent: theirs.get(label) || "–" }))))),
+    el("div", { className: "actions" }, button("Keep the card shown now", () => settleCard(record, record.rev)),
+      button("Keep the other version", () => settleCard(record, other.rev))));
+  }
+  box.replaceChildren(...parts);
+}
+
 export async function renderMachine(id) {
   const turn = ++drawing;
   const record = await machine(id);
   if (!record) {
     part("name").textContent = "No such machine on this device";
-    for (const name of ["site", "level", "due", "latest", "tools", "trends", "readings", "card"]) part(name).replaceChildren();
+    for (const name of ["site", "level", "conflict", "due", "latest", "tools", "trends", "readings", "card"]) part(name).replaceChildren();
     return;
   }
   const readings = await readingsOf(id);
@@ -45,6 +84,7 @@ export async function renderMachine(id) {
   const page = await ask("machine-page", { machine: record, readings: slim, units: currentUnits(), today: today() });
   if (turn !== drawing || !page.ok) return;
   part("name").textContent = page.name;
+  await showConflicts(record);
   document.title = page.name + " · Sumpside";
   part("site").textContent = page.site;
   part("level").textContent = page.level ? `Worst latest verdict: ${LEVEL_WORD[page.level]}` : "";

@@ -5,7 +5,8 @@ import { allMachines, allReadings, ask, digests, exportAll, importFile, loadDemo
   machine, redigest, removeDemo, saveMachine, problemWords, today } from "./kit.js";
 import { chooseMachine } from "./machine-pick.js";
 import { go } from "./routing.js";
-import { device, download } from "./store.js";
+import { device, download, share } from "./store.js";
+import { checklistDocs, keepChecklistDocs } from "./check-docs.js";
 import { LAST_EXPORT } from "./log-view.js";
 import { currentUnits } from "./units.js";
 
@@ -77,8 +78,13 @@ function startListActions() {
     status.textContent = "The demo plant is removed.";
   });
   act("export-json", async () => {
-    download(`sumpside-${stamp()}.json`, "application/json", JSON.stringify(await exportAll(), null, 1));
+    const file = await exportAll(await checklistDocs());
+    const how = await share(`sumpside-${stamp()}.json`, "application/json", JSON.stringify(file, null, 1));
+    if (how === "cancelled") { status.textContent = "Not exported: the share was cancelled."; return; }
     device.set(LAST_EXPORT, new Date().toISOString());
+    status.textContent = `${how === "shared" ? "Shared" : "Downloaded"}: ${file.machines.length} machine record(s), `
+      + `${file.readings.length} reading record(s) and ${file.checks.length} checklist result(s), deletions included. `
+      + "Import the file on the other phone: what is new there is added, nothing there is lost.";
   });
   act("export-csv", async () => {
     const answer = await ask("csv", { machines: await allMachines(), readings: await allReadings(), units: currentUnits() });
@@ -89,9 +95,11 @@ function startListActions() {
     const file = event.target.files[0];
     if (!file) return;
     try {
-      const added = await importFile(JSON.parse(decodeText(await file.arrayBuffer())));
-      status.textContent = `Imported ${added.machines} machine(s) and ${added.readings} reading(s); what was here already is kept.`
-        + (added.refused ? ` ${added.refused} reading(s) refused and left out: ${added.reasons.join("; ")}.` : "");
+      const merged = await importFile(JSON.parse(decodeText(await file.arrayBuffer())), await checklistDocs());
+      keepChecklistDocs(merged.put.checks);
+      status.textContent = `Imported: ${merged.message}; nothing on this phone was lost.`
+        + (merged.reasons.length ? ` Left out: ${merged.reasons.join("; ")}.` : "")
+        + (merged.open_conflicts ? ` ${merged.open_conflicts} card(s) changed on two phones: open the machine to choose.` : "");
     } catch (err) {
       status.textContent = "Import failed, nothing was added: " + (err instanceof SyntaxError
         ? "the file is not JSON (a Sumpside export is a .json file; use UTF-8 or UTF-16 text)" : problemWords(err));
@@ -164,7 +172,8 @@ function startCardForm() {
     event.preventDefault();
     const id = cardForm.dataset.id || null;
     const known = id ? await machine(id) : null;
-    const answer = await ask("card-check", { card: readCard(), units: currentUnits(), id, time: localStamp() });
+    // An edit is the stored card's next revision (so that it travels as one), a new card its first.
+    const answer = await ask("card-check", { card: readCard(), units: currentUnits(), id, time: localStamp(), previous: known || null });
     if (!answer.ok) { showCardErrors(answer.errors); return; }
     const record = known && known.demo ? { ...answer.machine, demo: true } : answer.machine;
     await saveMachine(record);

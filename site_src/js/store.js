@@ -14,6 +14,23 @@ function keeper(area) {
 export const device = keeper(() => localStorage);
 export const tab = keeper(() => sessionStorage);
 
+// A file for the user to pass on: the phone's share sheet where the browser shares files
+// (to another phone, a mail, a chat), else a download. Resolves with "shared", "cancelled"
+// or "downloaded".
+export async function share(name, type, text) {
+  const file = typeof File === "function" ? new File([text], name, { type }) : null;
+  if (file && navigator.canShare && navigator.canShare({ files: [file] })) {
+    try {
+      await navigator.share({ files: [file], title: name });
+      return "shared";
+    } catch (err) {
+      if (err && err.name === "AbortError") return "cancelled";
+    }
+  }
+  download(name, type, text);
+  return "downloaded";
+}
+
 // A file for the user to keep, offered as a download (nothing leaves the device).
 export function download(name, type, text) {
   const url = URL.createObjectURL(new Blob([text], { type }));

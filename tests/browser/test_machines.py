@@ -247,7 +247,7 @@ def test_a_hostile_import_adds_what_is_sound_and_says_what_it_refused(page, base
     status = page.locator("[data-kit-status]")
     status.filter(has_text="Imported").wait_for(timeout=BOOT_TIMEOUT_MS)
     said = status.inner_text()
-    assert "1 reading(s)" in said and "4 reading(s) refused" in said and "reading 2: tracked" in said
+    assert "1 reading added, 4 readings refused" in said and "reading 2: tracked" in said
     open_app(page, base_url, "#/log")
     page.locator("[data-log-list] article").first.wait_for(timeout=BOOT_TIMEOUT_MS)
     assert page.locator("[data-log-list] article").count() == 1

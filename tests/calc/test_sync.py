@@ -415,7 +415,7 @@ def test_hostile_records_in_a_file_are_refused_and_the_rest_taken():
     assert found["readings"] == [good] and found["machines"] == [card]
     assert found["refused"] == {"machines": 2, "readings": len(hostile), "checks": 1}
     assert len(found["reasons"]) == sync.REASONS_MAX and found["reasons"][0].startswith(
-        "machines 2: ")
+        "card 2: ")
     answer = api.call({"op": "merge", "local": {}, "incoming": file, "time": T0})
     assert answer["message"] == ("1 card added, 1 reading added, 2 cards refused, "
                                  "9 readings refused, 1 checklist result refused")
