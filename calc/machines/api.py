@@ -24,7 +24,7 @@ from ..kernel.answer import present
 from ..kernel.errors import InputError
 from ..kernel.result import LEVELS, Q
 from . import card as cards
-from . import condition, demo, records, report, travel
+from . import condition, demo, label, records, report, travel
 
 SLIM_KEYS = ("id", "machine", "tool", "time", "tracked", "level")
 
@@ -371,7 +371,30 @@ def check_readings(request: dict) -> dict:
     return {"ok": True, **records.checked_readings(request["readings"])}
 
 
+def label_of(request: dict) -> dict:
+    """A machine's label (``"machine"``): ``{"fragment"}`` for the app's address after
+    ``#/label/``, and ``{"words"}`` printed beside its code (calc.machines.label)."""
+    machine = _machine(request)
+    return {"ok": True, "fragment": label.fragment(machine),
+            "words": label.words(machine, _system(request))}
+
+
+def label_read(request: dict) -> dict:
+    """A scanned label's ``"fragment"`` checked, with this phone's record of the same
+    machine (``"local"``, or null): ``{"machine", "summary", "state"}``, where state is
+    "new" (not on this phone), "same" (this revision is here) or "differs" (this phone
+    holds another revision: the technician chooses, nothing is replaced without asking)."""
+    found = label.read(request.get("fragment"))
+    local = request.get("local")
+    state = ("new" if not isinstance(local, dict) or local.get("deleted") else
+             "same" if local.get("rev") == found["rev"] else "differs")
+    return {"ok": True, "machine": found, "state": state,
+            "summary": cards.summary(found["card"], _system(request)),
+            "local_updated": local.get("updated") if state == "differs" else None}
+
+
 OPS = {
+    "label": label_of, "label-read": label_read,
     "check-readings": check_readings,
     "card-form": card_form, "card-check": card_check, "card-view": card_view,
     "card-reexpress": card_reexpress, "fill": fill,
