@@ -54,7 +54,7 @@ import time
 from pathlib import Path
 from urllib.parse import urlparse
 
-from sitebuild import bench_machines, bench_report, serve, variant
+from sitebuild import bench_machines, bench_merge, bench_report, serve, variant
 
 ROOT = Path(__file__).resolve().parent.parent
 DIST = ROOT / "dist"
@@ -495,6 +495,8 @@ def main(argv: list[str] | None = None) -> int:
                 result["latency"] = latency(browser, app_url, timed, args.changes)
                 result["machine_kit"] = bench_machines.machines_row(
                     browser, f"{base}app/", max(args.repeat, 5), Throttle, PHONE)
+                result["merge"] = bench_merge.browser_row(
+                    browser, f"{base}app/", args.repeat, Throttle, bench_machines.RATE, PHONE)
                 if build_b:
                     result["update"] = update_cost(browser, site / "app", base, server.sent, timed, build_b)
                     result["update"]["changed_help"] = variant.changed_help_page(ROOT).name

@@ -109,6 +109,37 @@ def merge_row(repeat: int = 3) -> dict:
             "message": said}
 
 
+# In the page: phone A's calc merges phone B's file through the worker, as an import does
+# (the database writes after it are not timed). The files go in first, outside the timing.
+BROWSER_MERGE = """async ([mine, theirs]) => {
+  const kit = await import(new URL("js/kit.js", document.baseURI).href);
+  const started = performance.now();
+  const merged = await kit.ask("merge", { local: mine, incoming: theirs, time: kit.localStamp() });
+  if (!merged.ok) throw new Error(JSON.stringify(merged.errors));
+  return [performance.now() - started, merged.message];
+}"""
+
+
+def browser_row(browser, url: str, repeat: int, throttle_cls, rate: float, phone: dict) -> dict:
+    """The merge timed in the app's worker, renderers at CPU / `rate` (bench.Throttle)."""
+    mine, theirs = make_exports()
+    local = {kind: mine[kind] for kind in sync.KINDS}
+    context = browser.new_context(viewport=phone, service_workers="block")
+    page = context.new_page()
+    runs, said = [], ""
+    try:
+        page.goto(url + "#/cautions")
+        page.wait_for_selector("html[data-ready]", timeout=300_000)
+        with throttle_cls(rate):
+            for _ in range(repeat):
+                ms, said = page.evaluate(BROWSER_MERGE, [local, theirs])
+                runs.append(ms)
+    finally:
+        context.close()
+    return {"readings_each": len(mine["readings"]), "rate": rate, "repeat": repeat,
+            "merge_ms": statistics.median(runs), "runs": runs, "message": said}
+
+
 def table(row: dict) -> str:
     return "\n".join([
         f"Merge of two exports, {row['readings_each']:,} readings each ({row['file_bytes']:,} "

@@ -123,6 +123,10 @@ def targets(result: dict) -> list[tuple[str, str, str, bool | None]]:
         for key, label in (("machine_list_ms", "machines list, 200 machines, CPU / 4"),
                            ("machine_page_ms", "machine page, 1,000 readings, CPU / 4")):
             rows.append((label, "< 300 ms after ready", f"{kit[key]:,.0f} ms", kit[key] < 300))
+    merge = result.get("merge")
+    if merge:
+        rows.append((f"merge of two exports of {merge['readings_each']:,} readings, CPU / {merge['rate']:g}",
+                     "< 2 s", f"{merge['merge_ms']:,.0f} ms", merge["merge_ms"] < 2000))
     heap = result.get("heap")
     if heap:
         rows.append(("snapshot heap in use, share of its budget", "reported (build warns at 80 %)",
