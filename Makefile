@@ -11,6 +11,11 @@ STAMP     := $(VENV)/.installed
 NODE_STAMP := node_modules/.installed
 WHEELS    := .cache/pyodide-wheels
 WHEELS_STAMP := $(WHEELS)/.installed
+# Pure-Python wheels the app ships beside calc's (build.py APP_PACKAGES), at the versions
+# installed here from constraints.txt.
+APP_WHEELS := .cache/app-wheels
+APP_WHEELS_STAMP := $(APP_WHEELS)/.installed
+APP_PACKAGES := segno
 # Every build and test tool at an exact version, so two fresh clones build with the same tools.
 CONSTRAINTS := constraints.txt
 LOCK_VENV := .cache/lock-venv
@@ -23,7 +28,7 @@ PYTHON312 := $(shell for p in python3.13 python3.12 $$HOME/.pyenv/versions/3.13*
 # Pytest, Hypothesis and their dependencies, unpacked into Pyodide for the in-Pyodide run.
 PYODIDE_TEST_PACKAGES := pytest pluggy iniconfig packaging pygments hypothesis sortedcontainers
 
-setup: $(STAMP) $(NODE_STAMP) $(WHEELS_STAMP)
+setup: $(STAMP) $(NODE_STAMP) $(WHEELS_STAMP) $(APP_WHEELS_STAMP)
 
 $(STAMP): pyproject.toml $(CONSTRAINTS)
 	@test -n "$(PYTHON312)" || { echo "make: no Python >= 3.12 found (pyodide-build needs one)"; exit 1; }
@@ -52,6 +57,11 @@ $(NODE_STAMP): package.json package-lock.json
 $(WHEELS_STAMP): $(STAMP) $(NODE_STAMP) Makefile tests/pyodide/download_wheels.py
 	rm -rf $(WHEELS) && mkdir -p $(WHEELS)
 	$(PY) tests/pyodide/download_wheels.py $(WHEELS) $(PYODIDE_TEST_PACKAGES)
+	touch $@
+
+$(APP_WHEELS_STAMP): $(STAMP) $(NODE_STAMP) Makefile tests/pyodide/download_wheels.py
+	rm -rf $(APP_WHEELS) && mkdir -p $(APP_WHEELS)
+	$(PY) tests/pyodide/download_wheels.py $(APP_WHEELS) $(APP_PACKAGES)
 	touch $@
 
 chromium:

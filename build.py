@@ -36,6 +36,13 @@ ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
 DIST = ROOT / "dist"
 PYODIDE_NPM = ROOT / "node_modules" / "pyodide"
+# Pure-Python wheels the app ships beside calc's (segno, for the label's QR code), at the
+# versions constraints.txt pins; `make setup` downloads them here.
+APP_WHEELS = ROOT / ".cache" / "app-wheels"
+APP_PACKAGES = ("segno",)
+# The page's Python beyond calc (site_src/py: the label's QR code), packed into the same wheel
+# as top-level modules; calc itself stays standard-library only.
+PAGE_PYTHON = SITE / "py"
 # What the worker needs of the Pyodide core: the module loader, the interpreter and its stdlib.
 PYODIDE_CORE = ("pyodide.mjs", "pyodide.asm.mjs", "pyodide.asm.wasm", "python_stdlib.zip")
 # The wheel's files land in the version's deterministic zip: same sources, same bytes.
@@ -55,13 +62,18 @@ def build_wheel(out_dir: Path) -> Path:
     entries: list[tuple[str, bytes]] = []
     for path in sorted((ROOT / "calc").rglob("*.py")):
         entries.append((path.relative_to(ROOT).as_posix(), path.read_bytes()))
+    for path in sorted(PAGE_PYTHON.glob("*.py")):
+        entries.append((path.name, path.read_bytes()))
+    requires = "".join(f"Requires-Dist: {p}\n" for p in APP_PACKAGES)
     entries.append((f"{dist_info}/METADATA", (
         f"Metadata-Version: 2.1\nName: {name}\nVersion: {version}\n"
-        f"Summary: {meta['description']}\nRequires-Python: {meta['requires-python']}\n").encode()))
+        f"Summary: {meta['description']}\nRequires-Python: {meta['requires-python']}\n"
+        + requires).encode()))
     entries.append((f"{dist_info}/WHEEL", (
         "Wheel-Version: 1.0\nGenerator: sumpside-build\nRoot-Is-Purelib: true\n"
         "Tag: py3-none-any\n").encode()))
-    entries.append((f"{dist_info}/top_level.txt", b"calc\n"))
+    top = ["calc"] + [p.stem for p in sorted(PAGE_PYTHON.glob("*.py"))]
+    entries.append((f"{dist_info}/top_level.txt", ("\n".join(top) + "\n").encode()))
     record = []
     for arcname, data in entries:
         digest = base64.urlsafe_b64encode(hashlib.sha256(data).digest()).rstrip(b"=").decode()
@@ -88,8 +100,21 @@ def _pyodide_cli() -> str:
     return found
 
 
+def app_wheels(out_dir: Path) -> list[Path]:
+    """The app's other wheels (APP_PACKAGES) copied beside calc's, as downloaded."""
+    found = []
+    for package in APP_PACKAGES:
+        wheels = sorted(APP_WHEELS.glob(f"{package}-*-py3-none-any.whl"))
+        if len(wheels) != 1:
+            sys.exit(f"build: expected one {package} wheel in {APP_WHEELS}, found {len(wheels)}: "
+                     "run `make setup`")
+        found.append(Path(shutil.copy2(wheels[0], out_dir / wheels[0].name)))
+    return found
+
+
 def write_lock_file(wheel: Path, out_dir: Path) -> None:
-    """Pyodide's lock file, cut to the packages this build ships, plus the calc wheel."""
+    """Pyodide's lock file, cut to the packages this build ships, plus the calc wheel and
+    the wheels it needs (APP_PACKAGES)."""
     original = json.loads((PYODIDE_NPM / "pyodide-lock.json").read_text())
     # The npm package carries the core only: no package wheel it lists could be loaded.
     cut = {"info": original["info"], "packages": {}}
@@ -98,7 +123,8 @@ def write_lock_file(wheel: Path, out_dir: Path) -> None:
         source.write_text(json.dumps(cut))
         subprocess.run([_pyodide_cli(), "lockfile", "add-wheels", "--input", str(source),
                         "--output", str(out_dir / "pyodide-lock.json"),
-                        "--base-path", str(out_dir), str(wheel)],
+                        "--base-path", str(out_dir), str(wheel),
+                        *map(str, app_wheels(out_dir))],
                        check=True, stdout=subprocess.DEVNULL)
 
 

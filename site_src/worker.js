@@ -16,9 +16,11 @@ import { phases, timed } from "./js/boot-phases.js";
 
 const base = new URL("./", import.meta.url);
 const pyodideURL = new URL("pyodide/", base);
-// The bridge's entry point for each op the page sends (js/calc-client.js).
-const ENTRIES = { run: "run_json", reexpress: "reexpress_json", machines: "machines_json" };
+// The entry point for each op the page sends (js/calc-client.js): calc's bridge, and the
+// label's QR code (qr_label, segno: outside calc, which stays standard-library only).
+const ENTRIES = { run: "run_json", reexpress: "reexpress_json", machines: "machines_json", qr: "svg_json" };
 let bridge = null;
+let label = null;
 
 function status(state, text, extra = {}) {
   postMessage({ type: "status", state, text, ...extra });
@@ -57,6 +59,7 @@ async function bootSnapshot() {
   // A restored interpreter starts with the snapshot's random state: give it a fresh one.
   pyodide.runPython("import random; random.seed()");
   bridge = pyodide.pyimport("calc.bridge");
+  label = pyodide.pyimport("qr_label");
   // The snapshot holds memory, not files: lay the wheel's files down again once idle, so
   // tracebacks and anything reading the package's files find them. Every module is
   // imported already, so nothing waits on this.
@@ -79,6 +82,7 @@ async function bootNormal(lock) {
   const pyodide = await timed("pyodide load", loadPyodide(options(lock)));
   await timed("calc load", pyodide.loadPackage("sumpside", { messageCallback: () => {}, errorCallback: (m) => console.warn(m) }));
   bridge = pyodide.pyimport("calc.bridge");
+  label = pyodide.pyimport("qr_label");
   // Every tool answers once before "ready": a broken wheel shows here, not at the first tap.
   const started = performance.now();
   const check = JSON.parse(timed("self-check", () => bridge.self_check()));
@@ -98,6 +102,7 @@ async function boot() {
     note = String(err && err.message ? err.message : err);
     console.warn("snapshot boot failed, booting the normal way:", note);
     bridge = null;
+    label = null;
     status("starting", "Starting calculator the slow way (quick start unavailable: " + note + ")…",
       { mode: "normal", note });
   }
@@ -117,7 +122,7 @@ self.onmessage = async (event) => {
   try {
     await booted;
     if (!(op in ENTRIES)) throw new Error("unknown request " + op);
-    const call = () => JSON.parse(bridge[ENTRIES[op]](JSON.stringify(request)));
+    const call = () => JSON.parse((op === "qr" ? label : bridge)[ENTRIES[op]](JSON.stringify(request)));
     const answer = firstCall && op === "run" ? timed("first call", call) : call();
     if (op === "run") firstCall = false;
     postMessage({ type: "answer", id, answer });

@@ -58,12 +58,15 @@ if (survey) {
     console.error(`snapshot: the lock file's wheel is ${entry.sha256}, not ${wheelSha}`);
     process.exit(1);
   }
-  pyodide.FS.writeFile("/tmp/sumpside.whl", readFileSync(path.join(indexDir, entry.file_name)));
-  pyodide.runPython(`
+  // calc's wheel and the wheels it needs (segno, for the label's QR code).
+  for (const name of ["sumpside", ...entry.depends]) {
+    pyodide.FS.writeFile("/tmp/package.whl", readFileSync(path.join(indexDir, lock.packages[name].file_name)));
+    pyodide.runPython(`
 import site, zipfile
-with zipfile.ZipFile("/tmp/sumpside.whl") as _wheel:
+with zipfile.ZipFile("/tmp/package.whl") as _wheel:
     _wheel.extractall(site.getsitepackages()[0])
 del _wheel`);
+  }
 }
 
 // Everything runs in Python and returns a string: no JS proxy may be alive at snapshot time.
@@ -88,6 +91,12 @@ _plant = json.loads(calc.bridge.machines_json(json.dumps({"op": "demo", "today":
 for _machine in _plant["machines"]:
     calc.bridge.machines_json(json.dumps({"op": "machine-page", "machine": _machine, "units": "us",
                                           "readings": _plant["readings"], "today": "2026-01-01"}))
+# The label's QR code (segno, outside calc), every module of it, and one code drawn.
+import segno, qr_label
+for info in pkgutil.walk_packages(segno.__path__, "segno."):
+    if not info.name.endswith("__main__") and ".cli" not in info.name:
+        importlib.import_module(info.name)
+assert json.loads(qr_label.svg_json(json.dumps({"text": "https://sumpside.invalid/#/label/1.x"})))["ok"]
 # A traceback through calc's own code, as a bug report formats one (linecache reads the source).
 try:
     calc.kernel.registry.get("")

@@ -15,6 +15,7 @@ import { fillVisible, refillAll, startCardFill } from "./card-fill.js";
 import { reexpressCard, renderMachines, showCard, startMachines } from "./machines-view.js";
 import { renderMachine, showMachine, startMachineView } from "./machine-view.js";
 import { showVisit, startVisit } from "./visit-view.js";
+import { renderLabels, showFromLabel, startLabels } from "./labels-view.js";
 import { shownView, startRouting } from "./routing.js";
 import { startUpdates } from "./updates.js";
 
@@ -31,6 +32,8 @@ const DRAW = {
   machine: (param) => showMachine(param),
   card: (param) => showCard(param),
   visit: () => showVisit(),
+  labels: (param) => renderLabels(param),
+  label: (param) => showFromLabel(param),
 };
 
 // A view drawn from the database; when the database fails, the view says why at its top
@@ -99,6 +102,7 @@ startBugReports();
 startMachines();
 startMachineView();
 startVisit();
+startLabels(calculator);
 startCardFill(computeVisible);
 onMachineChange(async () => { await refillAll(); computeVisible(); });
 onKitChange(() => {

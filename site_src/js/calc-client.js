@@ -40,5 +40,7 @@ export function startCalculator(onStatus) {
     reexpress: (tool, inputs, from, to) => ask("reexpress", { tool, inputs, from, to }),
     // The machine kit's requests (calc.machines.api): op and its request -> its answer.
     machines: (op, request) => ask("machines", { op, ...request }),
+    // The QR code of a text ({text} -> {ok, svg, version}), for a machine's label.
+    qr: (text) => ask("qr", { text }),
   };
 }

@@ -91,6 +91,7 @@ export async function renderMachine(id) {
   part("level").className = "machine-level" + (page.level ? " level-" + page.level : "");
   part("visit").href = `#/visit/${encodeURIComponent(id)}/${today()}`;
   part("edit").href = "#/card/" + encodeURIComponent(id);
+  part("label").href = "#/labels/" + encodeURIComponent(id);
   part("due").replaceChildren(...(page.due.length ? page.due.map((d) => el("li", { className: "due-" + d.state, textContent: d.says }))
     : [el("li", { className: "muted", textContent: "No service intervals on the card: add them to see what is due." })]));
   part("no-readings").hidden = page.count > 0;
