@@ -329,10 +329,16 @@ def _checked_version(data: dict) -> int:
     return version
 
 
-def checked_export(data: object, stamp: str | None = None) -> dict:
+def checked_export(data: object, stamp: str | None = None, held: frozenset = frozenset()) -> dict:
     """A whole export file checked: ``{"version", "exported", "migrated", "machines",
     "readings", "checks" (clean documents, each with a rev), "refused": {kind: n},
-    "reasons": the first few, each with its place}``.
+    "reasons": the first few, each with its place, "held": how many were left out as
+    held already}``.
+
+    `held` is this phone's (kind, id, rev) of every document it stores: a document of the
+    file with the same id and revision is one this phone has, so it is left out unread
+    (whatever else it says, nothing of it would be stored). On the phone this is most of a
+    file from a phone met before, and most of an import's time.
 
     A file that is not an export of a version this app reads, or not whole, raises
     InputError, and nothing of it is taken. A bare list is the log of an earlier build:
@@ -345,13 +351,16 @@ def checked_export(data: object, stamp: str | None = None) -> dict:
         refused["readings"] = moved["skipped"]
         return {"version": 0, "exported": None, "migrated": True,
                 "machines": moved["machines"], "readings": moved["readings"], "checks": [],
-                "refused": refused, "reasons": []}
+                "refused": refused, "reasons": [], "held": 0}
     if not isinstance(data, dict):
         raise InputError("file", "the file is not a Sumpside export")
     version = _checked_version(data)
-    out, reasons = {kind: [] for kind in KINDS}, []
+    out, reasons, skipped = {kind: [] for kind in KINDS}, [], 0
     for kind in KINDS:
         for place, doc in enumerate(data.get(kind) or [], 1):
+            if held and isinstance(doc, dict) and (kind, doc.get("id"), doc.get("rev")) in held:
+                skipped += 1
+                continue
             try:
                 out[kind].append(checked_doc(doc, kind))
             except (InputError, TypeError, ValueError) as err:
@@ -361,4 +370,4 @@ def checked_export(data: object, stamp: str | None = None) -> dict:
     exported = data.get("exported")
     return {"version": version, "migrated": version == 1,
             "exported": exported if isinstance(exported, str) and when(exported) else None,
-            **out, "refused": refused, "reasons": reasons}
+            **out, "refused": refused, "reasons": reasons, "held": skipped}

@@ -70,8 +70,13 @@ def merge_file(request: dict) -> dict:
     if not isinstance(held, dict):
         raise InputError("local", "holds this phone's machines, readings and checks")
     local = [doc for kind in sync.KINDS for doc in _docs(held, kind, "local." + kind)]
-    found = sync.checked_export(request.get("incoming"), request.get("time"))
+    # What this phone holds at the same revision is not read again (sync.checked_export).
+    same = frozenset((kind, doc.get("id"), doc.get("rev")) for kind in sync.KINDS
+                     for doc in _docs(held, kind) if isinstance(doc, dict)
+                     and isinstance(doc.get("rev"), str))
+    found = sync.checked_export(request.get("incoming"), request.get("time"), same)
     merged = sync.merge(local, [doc for kind in sync.KINDS for doc in found[kind]])
+    merged["unchanged"] += found["held"]
     put = merged["put"]
     replaced = {(kind, doc["id"]) for kind, docs in put.items() for doc in docs}
     still = [doc for doc in local if (sync.kind_of(doc), doc.get("id")) not in replaced]

@@ -517,3 +517,21 @@ def test_deletion_markers_are_not_shown_as_records():
                        "readings": readings, "today": "2026-03-06"})
     assert [m["id"] for m in listed["machines"]] == [card["id"]]
     assert api.call({"op": "reading", "record": readings[1]})["ok"] is False
+
+
+def test_what_this_phone_holds_at_the_same_revision_is_not_read_again():
+    # The same id and revision is the same document (its rev hashes its content): a file's
+    # copy is left out unread, counted unchanged, and a copy whose content was tampered with
+    # behind an unchanged rev cannot replace what this phone holds.
+    card, reading = _card(), _reading()
+    tampered = {**reading, "note": "<script>x</script>", "tracked": {"oil_temp": "hot"}}
+    file = {"format": sync.EXPORT, "version": sync.EXPORT_VERSION, "exported": T1,
+            "machines": [card], "readings": [tampered], "checks": []}
+    answer = api.call({"op": "merge", "local": {"machines": [card], "readings": [reading]},
+                       "incoming": file, "time": T1})
+    assert answer["ok"] and answer["message"] == "nothing new"
+    assert answer["unchanged"] == 2 and answer["put"]["readings"] == []
+    assert sum(answer["refused"].values()) == 0
+    # A phone without it reads the same file in full, and refuses the tampered reading.
+    fresh = api.call({"op": "merge", "local": {}, "incoming": file, "time": T1})
+    assert fresh["refused"]["readings"] == 1 and fresh["put"]["machines"] == [card]
