@@ -91,7 +91,7 @@ def merge_row(repeat: int = 3) -> dict:
     mine, theirs = make_exports()
     local = [doc for kind in sync.KINDS for doc in mine[kind]]
     # As travel.merge_file: what phone A holds at the same revision is not read again.
-    held = frozenset((kind, doc["id"], doc["rev"]) for kind in sync.KINDS for doc in mine[kind])
+    held = frozenset(sync.held_key(kind, doc) for kind in sync.KINDS for doc in mine[kind])
     text = json.dumps(theirs)
     checked_ms, merge_ms, said = [], [], ""
     for _ in range(repeat):

@@ -329,14 +329,27 @@ def _checked_version(data: dict) -> int:
     return version
 
 
+def held_key(kind: str, doc: object) -> tuple | None:
+    """What says that two copies of a document are the same: its kind, id and revision,
+    and the revisions of the sides it keeps in conflict (a rev hashes the content, not the
+    conflicts kept beside it). None for a document without a revision."""
+    if not isinstance(doc, dict) or not isinstance(doc.get("rev"), str):
+        return None
+    sides = doc.get("conflicts") or []
+    if not isinstance(sides, list):
+        return None
+    return (kind, doc.get("id"), doc["rev"],
+            tuple(sorted(str(s.get("rev")) if isinstance(s, dict) else "?" for s in sides)))
+
+
 def checked_export(data: object, stamp: str | None = None, held: frozenset = frozenset()) -> dict:
     """A whole export file checked: ``{"version", "exported", "migrated", "machines",
     "readings", "checks" (clean documents, each with a rev), "refused": {kind: n},
     "reasons": the first few, each with its place, "held": how many were left out as
     held already}``.
 
-    `held` is this phone's (kind, id, rev) of every document it stores: a document of the
-    file with the same id and revision is one this phone has, so it is left out unread
+    `held` is this phone's `held_key` of every document it stores: a document of the file
+    with the same key (id, revision, sides in conflict) is one this phone has, so it is left out unread
     (whatever else it says, nothing of it would be stored). On the phone this is most of a
     file from a phone met before, and most of an import's time.
 
@@ -358,7 +371,7 @@ def checked_export(data: object, stamp: str | None = None, held: frozenset = fro
     out, reasons, skipped = {kind: [] for kind in KINDS}, [], 0
     for kind in KINDS:
         for place, doc in enumerate(data.get(kind) or [], 1):
-            if held and isinstance(doc, dict) and (kind, doc.get("id"), doc.get("rev")) in held:
+            if held and held_key(kind, doc) in held:
                 skipped += 1
                 continue
             try:

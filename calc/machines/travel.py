@@ -71,9 +71,7 @@ def merge_file(request: dict) -> dict:
         raise InputError("local", "holds this phone's machines, readings and checks")
     local = [doc for kind in sync.KINDS for doc in _docs(held, kind, "local." + kind)]
     # What this phone holds at the same revision is not read again (sync.checked_export).
-    same = frozenset((kind, doc.get("id"), doc.get("rev")) for kind in sync.KINDS
-                     for doc in _docs(held, kind) if isinstance(doc, dict)
-                     and isinstance(doc.get("rev"), str))
+    same = frozenset(sync.held_key(kind, doc) for kind in sync.KINDS for doc in _docs(held, kind)) - {None}
     found = sync.checked_export(request.get("incoming"), request.get("time"), same)
     merged = sync.merge(local, [doc for kind in sync.KINDS for doc in found[kind]])
     merged["unchanged"] += found["held"]

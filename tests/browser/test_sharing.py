@@ -106,3 +106,28 @@ def test_two_phones_meet_by_file_and_a_card_edited_on_both_is_settled_once(brows
     finally:
         a_context.close()
         b_context.close()
+
+
+def test_a_checklists_marks_and_notes_travel_with_the_file(browser, base_url, tmp_path):
+    a_context, a, a_watch = _phone(browser, base_url)
+    b_context, b, b_watch = _phone(browser, base_url)
+    try:
+        name, view = "checklist-water", "#view-tool-checklist-water"
+        # Each check's result is kept per checklist and day with no machine chosen ("none").
+        open_app(a, base_url, f"#/tool/{name}")
+        first = a.locator(f"{view} [data-check]").first
+        first.locator('[data-check-state][value="fail"]').check()
+        first.locator("[data-check-note]").fill("Drain valve opened, 0.2 L of water")
+        a.fill(f"{view} [data-checklist-note]", "Checked with the shift lead")
+        assert "1 checklist result added" in _pass_file(a, b, tmp_path, "a1.json")
+        open_app(b, base_url, f"#/tool/{name}")
+        first = b.locator(f"{view} [data-check]").first
+        assert first.locator('[data-check-state][value="fail"]').is_checked()
+        assert first.locator("[data-check-note]").input_value() == "Drain valve opened, 0.2 L of water"
+        assert b.locator(f"{view} [data-checklist-note]").input_value() == "Checked with the shift lead"
+        # Passed back unchanged, it is nothing new.
+        assert _pass_file(b, a, tmp_path, "b1.json").startswith("Imported: nothing new")
+        assert not a_watch.errors and not b_watch.errors
+    finally:
+        a_context.close()
+        b_context.close()

@@ -535,3 +535,18 @@ def test_what_this_phone_holds_at_the_same_revision_is_not_read_again():
     # A phone without it reads the same file in full, and refuses the tampered reading.
     fresh = api.call({"op": "merge", "local": {}, "incoming": file, "time": T1})
     assert fresh["refused"]["readings"] == 1 and fresh["put"]["machines"] == [card]
+
+
+def test_a_copy_at_the_same_revision_that_keeps_a_conflict_is_read():
+    # The rev hashes the content, not the sides kept in conflict beside it: a phone that
+    # holds the winning card without the conflict must still learn of the conflict.
+    card = _card()
+    mine, theirs = _edit(card, T1, card={**card["card"], "site": "Bay 3"}), _edit(
+        card, T2, card={**card["card"], "site": "Bay 4"})
+    met = _only(sync.merge([mine], [theirs]), "machines")
+    holder = mine if met["rev"] == mine["rev"] else theirs  # the phone whose edit is shown
+    file = {"format": sync.EXPORT, "version": sync.EXPORT_VERSION, "exported": T3,
+            "machines": [met], "readings": [], "checks": []}
+    answer = api.call({"op": "merge", "local": {"machines": [holder]}, "incoming": file, "time": T3})
+    assert answer["open_conflicts"] == 1, answer
+    assert len(_only(answer, "machines")["conflicts"]) == 1
