@@ -9,6 +9,17 @@ import random
 from calc.kernel import registry
 
 
+def all_finite(obj: object) -> bool:
+    """Whether every float in an answer (nested in its dicts and lists) is finite."""
+    if isinstance(obj, float):
+        return math.isfinite(obj)
+    if isinstance(obj, dict):
+        return all(all_finite(v) for v in obj.values())
+    if isinstance(obj, list):
+        return all(all_finite(v) for v in obj)
+    return True
+
+
 def random_inputs(found: registry.Tool, rng: random.Random) -> dict:
     """One set of typed inputs: about 30 % of the fields left blank, the rest in range; a
     field the chosen mode does not use is left out (it would be refused)."""

@@ -12,7 +12,6 @@ takes fewer, at random, so that a change gets a quick first look.
 """
 
 import json
-import math
 import os
 
 import pytest
@@ -23,6 +22,7 @@ from hypothesis import HealthCheck, given, settings, strategies as st  # noqa: E
 from calc import bridge  # noqa: E402
 from calc.kernel import registry  # noqa: E402
 from calc.kernel.errors import QUOTE_CHARS  # noqa: E402
+from .cases import all_finite  # noqa: E402
 
 TOOLS = registry.tools()
 EXAMPLES = 1000 if os.environ.get("CI") else 60
@@ -75,15 +75,6 @@ def requests(draw, tool_id):
             f'"examples": {examples}}}')
 
 
-def _finite(obj) -> bool:
-    if isinstance(obj, float):
-        return math.isfinite(obj)
-    if isinstance(obj, dict):
-        return all(_finite(v) for v in obj.values())
-    if isinstance(obj, list):
-        return all(_finite(v) for v in obj)
-    return True
-
 
 @pytest.mark.slow
 @pytest.mark.parametrize("tool_id", sorted(TOOLS))
@@ -98,7 +89,7 @@ def test_any_request_text_gets_the_json_answer_shape(tool_id):
         assert "bug" not in answer, answer.get("bug")
         assert isinstance(answer.get("ok"), bool)
         if answer["ok"]:
-            assert _finite(answer["values"]) and _finite(answer.get("charts_data", {}))
+            assert all_finite(answer["values"]) and all_finite(answer.get("charts_data", {}))
             assert all(v["message"] and v["level"] in ("ok", "watch", "act")
                        for v in answer["verdicts"])
         else:

@@ -1,25 +1,16 @@
 """Contracts every tool keeps, enumerated from the registry."""
 
 import json
-import math
 
 import pytest
 
 from calc import bridge
 from calc.kernel import registry, units
 from calc.kernel.errors import InputError
+from .cases import all_finite
 
 TOOLS = registry.tools()
 
-
-def _finite(obj):
-    if isinstance(obj, float):
-        return math.isfinite(obj)
-    if isinstance(obj, dict):
-        return all(_finite(v) for v in obj.values())
-    if isinstance(obj, list):
-        return all(_finite(v) for v in obj)
-    return True
 
 
 @pytest.mark.parametrize("tool_id", sorted(TOOLS))
@@ -27,7 +18,7 @@ def test_defaults_compute(tool_id):
     answer = bridge.run(tool_id, {}, examples=True)
     assert answer["ok"], answer
     assert answer["values"], "a tool must compute something from its defaults"
-    assert _finite(answer)
+    assert all_finite(answer)
     for v in answer["verdicts"]:
         assert v["level"] in ("ok", "watch", "act") and v["message"] and v["basis"]
     assert answer["sources"], "every tool names its sources"

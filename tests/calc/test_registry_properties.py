@@ -1,6 +1,5 @@
 """Property tests over every tool: no input, however bad, gives a traceback, NaN or infinity."""
 
-import math
 
 import pytest
 
@@ -9,6 +8,7 @@ from hypothesis import given, settings, strategies as st  # noqa: E402
 
 from calc import bridge  # noqa: E402
 from calc.kernel import registry, units
+from .cases import all_finite  # noqa: E402
 
 TOOLS = registry.tools()
 
@@ -33,15 +33,6 @@ def _inputs_strategy(found):
     return st.fixed_dictionaries({}, optional={f.key: value_for(f) for f in found.inputs})
 
 
-def _all_finite(obj):
-    if isinstance(obj, float):
-        return math.isfinite(obj)
-    if isinstance(obj, dict):
-        return all(_all_finite(v) for v in obj.values())
-    if isinstance(obj, list):
-        return all(_all_finite(v) for v in obj)
-    return True
-
 
 @pytest.mark.parametrize("tool_id", sorted(TOOLS))
 def test_any_input_gives_an_answer_or_named_errors(tool_id):
@@ -54,7 +45,7 @@ def test_any_input_gives_an_answer_or_named_errors(tool_id):
         answer = bridge.run(tool_id, inputs, examples=True)
         assert "bug" not in answer, answer.get("bug")
         if answer["ok"]:
-            assert _all_finite(answer["values"])
+            assert all_finite(answer["values"])
             assert all(v["message"] for v in answer["verdicts"])
             for out in found.outputs:  # no absolute pressure below zero, no temperature below
                 value = answer["values"].get(out.key)  # absolute zero, no level over 100 %
