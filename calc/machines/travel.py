@@ -22,7 +22,7 @@ from ..kernel import units
 from ..kernel.errors import InputError
 from ..kernel.result import Q
 from . import card as cards
-from . import checkmarks, records, revisions, sync
+from . import checkmarks, database, records, revisions, sync
 
 
 def _docs(request: dict, key: str, field: str | None = None) -> list:
@@ -169,5 +169,34 @@ def checks_save(request: dict) -> dict:
     return {"ok": True, "doc": kept, "changed": kept is not previous}
 
 
+def database_merge(request: dict) -> dict:
+    """``{"local": as for merge, "leaves": documents of the plant's database (every leaf of
+    each, as replicated), "time"}`` merged as a file would be (`merge_file`, after
+    `database.from_database`); documents that are not the kit's records are refused, counted
+    and said with the others."""
+    found = database.from_database(request.get("leaves"))
+    merged = merge_file({**request, "incoming": found["file"]})
+    if found["refused"]:
+        said = database.NOT_KIT_SAID[found["refused"] != 1].format(n=found["refused"])
+        merged["message"] = said if merged["message"] == sync.NOTHING_SAID \
+            else merged["message"] + ", " + said
+    merged["reasons"] = (found["reasons"] + merged["reasons"])[:sync.REASONS_MAX]
+    merged["not_records"] = found["refused"]
+    return merged
+
+
+def database_writes(request: dict) -> dict:
+    """``{"machines", "readings", "checks": this phone's stored documents, "heads": what
+    the database holds of each}``: ``{"docs": the database documents to write, "closed"}``
+    (`database.writes`)."""
+    stored = {kind: _docs(request, kind) for kind in sync.KINDS}
+    heads = request.get("heads")
+    if not isinstance(heads, list):
+        raise InputError("heads", "is a list of what the database holds (empty for an empty "
+                                  "database)")
+    return {"ok": True, **database.writes(stored, heads)}
+
+
 OPS = {"export": export, "export-check": export_check, "merge": merge_file,
-       "revise": revise, "delete": delete, "settle": settle, "checks-save": checks_save}
+       "revise": revise, "delete": delete, "settle": settle, "checks-save": checks_save,
+       "database-merge": database_merge, "database-writes": database_writes}
