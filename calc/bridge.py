@@ -20,11 +20,10 @@ from __future__ import annotations
 
 import hashlib
 import json
-import re
 import traceback
 from datetime import datetime
 
-from .kernel import registry, units
+from .kernel import jsontext, registry, units
 from .kernel.errors import InputError
 from .kernel.answer import present
 from .machines import api as machines_api
@@ -103,30 +102,10 @@ def reexpress(tool_id: str, inputs: dict, from_system: str, to_system: str) -> d
 REQUEST_DEPTH_MAX = 32
 
 
-_STRINGS = re.compile(r'"(?:[^"\\]|\\.)*"')
-_NOT_BRACKETS = re.compile(r"[^\[\]{}]+")
-
-
-def _depth(text: str) -> int:
-    """The deepest nesting of [ and { in JSON text, outside strings (the strings and all
-    but the brackets dropped by regular expressions first: a large request stays cheap).
-
-    >>> _depth('{"a": [1, {"b": "[[["}]}'), _depth("[" * 5)
-    (3, 5)
-    """
-    depth = deepest = 0
-    for char in _NOT_BRACKETS.sub("", _STRINGS.sub("", text)):
-        depth += 1 if char in "[{" else -1
-        deepest = max(deepest, depth)
-    return deepest
-
-
 def _request(request: str) -> tuple[dict | None, dict | None]:
     """(the request object, None) or (None, the error answer): any text at all, however
     deep or malformed, gives one or the other."""
-    if not isinstance(request, str) or (
-            request.count("[") + request.count("{") > REQUEST_DEPTH_MAX
-            and _depth(request) > REQUEST_DEPTH_MAX):
+    if not isinstance(request, str) or jsontext.too_deep(request, REQUEST_DEPTH_MAX):
         return None, {"ok": False, "errors": [{"field": "request",
                                                "message": "nested too deeply, or not text"}]}
     try:

@@ -16,9 +16,11 @@ merged record over the winning leaf and closes the others (`writes`). The merged
 keeps a card edited on two phones as a conflict for the user, as a file would; two phones
 that close the same leaves apart write the same record, so they settle the next time round.
 
-A document from the database is data from outside: its id must name its record's kind and
-id, its members must check as a file's would (sync.checked_export), and one that does not
-is refused with its reason while the others are taken.
+A document from the database is data from outside. The page hands each over as its JSON
+text, read here one by one (nested too deep, too long or not JSON, it is refused alone and
+never reaches the parser of the request); its id must name its record's kind and id, its
+members must check as a file's would (sync.checked_export), and one that does not is
+refused with its reason while the others are taken.
 
 >>> from calc.machines import records
 >>> card = records.new_machine({"name": "Saw 4"}, "metric", "2026-03-04T09:15:00+01:00",
@@ -26,15 +28,18 @@ is refused with its reason while the others are taken.
 >>> doc = to_database("machines", card)
 >>> doc["_id"]
 'machine:saw-4'
->>> found = from_database([{**doc, "_rev": "1-abc"}])
+>>> found = from_database([json.dumps({**doc, "_rev": "1-abc"})])
 >>> [m["id"] for m in found["file"]["machines"]], found["refused"]
 (['saw-4'], 0)
->>> from_database([{"_id": "machine:other", **card}])["reasons"]
+>>> from_database([json.dumps({"_id": "machine:other", **card})])["reasons"]
 ['database document machine:other: its id is not the id of the record it holds']
 """
 
 from __future__ import annotations
 
+import json
+
+from ..kernel import jsontext
 from ..kernel.errors import InputError
 from ..kernel.result import Q
 from . import sync
@@ -45,6 +50,8 @@ KIND_OF_PREFIX = {prefix: kind for kind, prefix in PREFIX.items()}
 # A record inside an export file sits two levels down (file, list): its own nesting may be
 # what is left of the file's.
 RECORD_DEPTH_MAX = sync.EXPORT_DEPTH_MAX - 2
+# The longest text of one document: a card with CONFLICTS_MAX sides in conflict is far less.
+DOCUMENT_CHARS_MAX = 500_000
 ID_SHOWN_CHARS = 60
 NOT_KIT_SAID = ("{n} database document refused", "{n} database documents refused")
 
@@ -78,25 +85,36 @@ def _record(leaf: object) -> tuple[str, dict]:
         raise InputError("document", "does not hold the kind of record its id names")
     if record.get("id") != record_id:
         raise InputError("document", "its id is not the id of the record it holds")
-    if sync.deepest(record, RECORD_DEPTH_MAX) > RECORD_DEPTH_MAX:
-        raise InputError("document", "is nested deeper than a record is")
     return kind, record
 
 
+def _parsed(text: object) -> object:
+    if not isinstance(text, str):
+        raise InputError("document", "is not the text of a document")
+    if len(text) > DOCUMENT_CHARS_MAX:
+        raise InputError("document", "is longer than a record is")
+    leaf = jsontext.loads(text, RECORD_DEPTH_MAX)
+    if not isinstance(leaf, dict):
+        raise InputError("document", "is not a document, or is nested deeper than a record is")
+    return leaf
+
+
 def from_database(leaves: list) -> dict:
-    """Documents of the database (every leaf of each, as replicated) as an export file for
-    `sync.checked_export`: ``{"file", "refused": how many are not the kit's records,
-    "reasons": the first few}``. Documents the database itself deleted are left out (the
-    kit deletes with markers, which travel as records)."""
+    """Documents of the database (every leaf of each, as replicated, each as its JSON text)
+    as an export file for `sync.checked_export`: ``{"file", "refused": how many are not the
+    kit's records, "reasons": the first few}``. Documents the database itself deleted are
+    left out (the kit deletes with markers, which travel as records)."""
     if not isinstance(leaves, list) or len(leaves) > sync.DOCS_MAX:
         raise InputError("leaves", "is a list of at most {most} database documents",
                          most=Q(float(sync.DOCS_MAX), "count"))
     out = {kind: [] for kind in sync.KINDS}
     refused, reasons = 0, []
-    for leaf in leaves:
-        if isinstance(leaf, dict) and leaf.get("_deleted") is True:
-            continue
+    for text in leaves:
+        leaf = None
         try:
+            leaf = _parsed(text)
+            if leaf.get("_deleted") is True:
+                continue
             kind, record = _record(leaf)
         except InputError as err:
             refused += 1
