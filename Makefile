@@ -51,7 +51,9 @@ lock:
 	rm -rf $(LOCK_VENV)
 
 $(NODE_STAMP): package.json package-lock.json
-	npm ci --no-audit --no-fund
+	# No package's install script runs: what the app and the tests use needs none (the test
+	# database server runs in memory), and some would try to fetch or compile native code.
+	npm ci --no-audit --no-fund --ignore-scripts
 	touch $@
 
 $(WHEELS_STAMP): $(STAMP) $(NODE_STAMP) Makefile tests/pyodide/download_wheels.py

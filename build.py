@@ -36,6 +36,11 @@ ROOT = Path(__file__).resolve().parent
 SITE = ROOT / "site_src"
 DIST = ROOT / "dist"
 PYODIDE_NPM = ROOT / "node_modules" / "pyodide"
+# The replication library for sync with the plant's database (js/sync.js), as npm ships it
+# for the browser, with its licence; loaded only once the user turns sync on.
+POUCHDB_NPM = ROOT / "node_modules" / "pouchdb"
+VENDOR = {POUCHDB_NPM / "dist" / "pouchdb.min.js": "pouchdb.min.js",
+          POUCHDB_NPM / "LICENSE": "pouchdb.LICENSE.txt"}
 # Pure-Python wheels the app ships beside calc's (segno, for the label's QR code), at the
 # versions constraints.txt pins; `make setup` downloads them here.
 APP_WHEELS = ROOT / ".cache" / "app-wheels"
@@ -155,6 +160,14 @@ def render_pages(dist: Path, build_id: str, pyodide_version: str) -> None:
 def copy_static(dist: Path) -> None:
     for sub in ("css", "js"):
         shutil.copytree(SITE / sub, dist / sub, dirs_exist_ok=True)
+    (dist / "js" / "vendor").mkdir(exist_ok=True)
+    for source, name in VENDOR.items():
+        if not source.is_file():
+            sys.exit(f"build: {source} is missing: run `npm ci` first")
+        text = source.read_text(encoding="utf-8")
+        # The map is not shipped: its comment would only send the browser's tools after it.
+        text = text.replace("\n//# sourceMappingURL=pouchdb.min.js.map", "\n")
+        (dist / "js" / "vendor" / name).write_text(text, encoding="utf-8")
     shutil.copy2(SITE / "worker.js", dist / "worker.js")
 
 
@@ -245,12 +258,15 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--port", type=int, default=int(os.environ.get("PORT", "8000")))
     parser.add_argument("--no-build", action="store_true", help="serve dist/ as it is")
     parser.add_argument("--dist", type=Path, default=DIST, help="where to build (default dist/)")
+    parser.add_argument("--database", metavar="URL",
+                        help="serve: pass /db/... to this CouchDB-protocol server, as the "
+                             "plant's reverse proxy does (e.g. http://127.0.0.1:5984)")
     args = parser.parse_args(argv)
     if not (args.command == "serve" and args.no_build):
         build_id = build(args.dist.resolve())
         print(f"built {args.dist} (build {build_id})")
     if args.command == "serve":
-        serve.serve_forever(args.dist.resolve(), port=args.port)
+        serve.serve_forever(args.dist.resolve(), port=args.port, database=args.database)
     return 0
 
 

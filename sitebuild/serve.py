@@ -6,13 +6,20 @@ As a production static host would, it serves a file's ``.br`` or ``.gz`` twin
 ``Accept-Encoding``: brotli when accepted, else gzip, else the file as it is.
 A server made with ``record=True`` keeps what it sent (``server.sent``), so the
 update test and the benchmark can count what a phone downloaded.
+
+With ``database`` (a CouchDB-protocol server's address, like http://127.0.0.1:5984), requests
+under DATABASE_PATH are passed to it, as the plant's reverse proxy does: the app and its
+database under one origin, so the page's ``connect-src 'self'`` holds. The browser tests
+use it with pouchdb-server; README shows the same for a real CouchDB behind nginx.
 """
 
 from __future__ import annotations
 
 import functools
+import http.client
 import http.server
 import threading
+import urllib.parse
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -33,6 +40,14 @@ CSP = ("default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; worker-src 'se
        "connect-src 'self'; img-src 'self' data:; style-src 'self'; object-src 'none'; "
        "base-uri 'self'; form-action 'none'; frame-ancestors 'none'")
 
+
+# Where the database is under the app's origin: /db/<database> is <database> on the server.
+DATABASE_PATH = "/db/"
+# Headers of one connection, not of the request: never passed on. Accept-Encoding is dropped
+# so that the database answers in plain bytes, passed on as they come.
+HOP = frozenset({"connection", "keep-alive", "proxy-authenticate", "proxy-authorization",
+                 "te", "trailer", "transfer-encoding", "upgrade", "host", "accept-encoding",
+                 "content-length"})
 
 # The twins build.py writes, best first, and the Content-Encoding each is sent with.
 ENCODINGS = (("br", ".br"), ("gzip", ".gz"))
@@ -70,6 +85,50 @@ def accepted(header: str) -> set[str]:
 class Handler(http.server.SimpleHTTPRequestHandler):
     extensions_map = {**http.server.SimpleHTTPRequestHandler.extensions_map, **TYPES}
     quiet = True
+    database: str | None = None
+
+    def _to_database(self) -> bool:
+        """Pass the request on to the database when it is for it; whether it was."""
+        if self.database is None or not self.path.startswith(DATABASE_PATH):
+            return False
+        where = urllib.parse.urlsplit(self.database)
+        length = int(self.headers.get("Content-Length") or 0)
+        body = self.rfile.read(length) if length else None
+        headers = {k: v for k, v in self.headers.items() if k.lower() not in HOP}
+        upstream = http.client.HTTPConnection(where.hostname, where.port, timeout=60)
+        try:
+            upstream.request(self.command, self.path[len(DATABASE_PATH) - 1:], body=body,
+                             headers=headers)
+            answer = upstream.getresponse()
+            data = answer.read()
+        except OSError:
+            self.send_error(502, "the database did not answer")
+            return True
+        finally:
+            upstream.close()
+        self.send_response(answer.status, answer.reason)
+        for key, value in answer.getheaders():
+            if key.lower() not in HOP and key.lower() != "cache-control":
+                self.send_header(key, value)
+        self.send_header("Content-Length", str(len(data)))
+        self.end_headers()
+        if self.command != "HEAD":
+            self.wfile.write(data)
+        return True
+
+    def do_GET(self):
+        if not self._to_database():
+            super().do_GET()
+
+    def do_HEAD(self):
+        if not self._to_database():
+            super().do_HEAD()
+
+    def _database_only(self):
+        if not self._to_database():
+            self.send_error(405, "only the database takes this method")
+
+    do_PUT = do_POST = do_DELETE = _database_only
 
     def send_response(self, code, message=None):
         self._sent = Sent(self.path, code)
@@ -134,28 +193,31 @@ class Handler(http.server.SimpleHTTPRequestHandler):
             super().log_message(format, *args)
 
 
-def make_server(root: Path, port: int = 0, quiet: bool = True,
-                record: bool = False) -> http.server.ThreadingHTTPServer:
-    handler = functools.partial(type("QuietHandler", (Handler,), {"quiet": quiet}),
-                                directory=str(root))
+def make_server(root: Path, port: int = 0, quiet: bool = True, record: bool = False,
+                database: str | None = None) -> http.server.ThreadingHTTPServer:
+    handler = functools.partial(
+        type("QuietHandler", (Handler,), {"quiet": quiet, "database": database}),
+        directory=str(root))
     server = http.server.ThreadingHTTPServer(("127.0.0.1", port), handler)
     server.daemon_threads = True
     server.sent = [] if record else None
     return server
 
 
-def start_in_thread(root: Path, port: int = 0,
-                    record: bool = False) -> tuple[http.server.ThreadingHTTPServer, str]:
+def start_in_thread(root: Path, port: int = 0, record: bool = False,
+                    database: str | None = None) -> tuple[http.server.ThreadingHTTPServer, str]:
     """A running server and its base URL; call ``server.shutdown()`` when done."""
-    server = make_server(root, port, record=record)
+    server = make_server(root, port, record=record, database=database)
     threading.Thread(target=server.serve_forever, daemon=True).start()
     return server, f"http://127.0.0.1:{server.server_address[1]}/"
 
 
-def serve_forever(root: Path, port: int = 8000) -> None:
-    server = make_server(root, port, quiet=False)
+def serve_forever(root: Path, port: int = 8000, database: str | None = None) -> None:
+    server = make_server(root, port, quiet=False, database=database)
     print(f"Sumpside is served at http://127.0.0.1:{server.server_address[1]}/  (Ctrl+C stops)",
           flush=True)
+    if database:
+        print(f"  {DATABASE_PATH}<name> is passed to the database at {database}", flush=True)
     try:
         server.serve_forever()
     except KeyboardInterrupt:

@@ -18,6 +18,7 @@ import { showVisit, startVisit } from "./visit-view.js";
 import { renderLabels, showFromLabel, startLabels } from "./labels-view.js";
 import { shownView, startRouting } from "./routing.js";
 import { startUpdates } from "./updates.js";
+import { startSync } from "./sync.js";
 
 const calculator = startCalculator((msg) => {
   showStatus(msg);
@@ -111,6 +112,7 @@ onKitChange(() => {
   if (view?.dataset.view === "machine") renderMachine(view.dataset.param);
 });
 startUpdates(calculator.ready);
+startSync(calculator.ready);
 // The chosen machine first (its name in the bar), then the view the address asks for.
 startMachinePick().catch((err) => console.warn("no machine chosen:", err)).then(() => {
   startRouting(showView);

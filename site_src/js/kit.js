@@ -152,13 +152,27 @@ export async function exportAll(checks) {
 // ways to settle). Only calc's `put` is written, in one transaction: a file refused whole
 // changes nothing. Resolves with calc's answer (its `message` says what it did; `put.checks`
 // are the checklist results for the page to keep).
-export async function importFile(data, checks) {
-  const merged = await ask("merge", { local: await everything(checks), incoming: data, time: localStamp() });
+export const importFile = (data, checks) => mergeInto("merge", { incoming: data }, checks);
+
+// What the plant's database holds (js/sync.js): every version of each document that changed,
+// merged as a file is (calc.machines.database), and kept the same way.
+export const mergeLeaves = (leaves, checks) => mergeInto("database-merge", { leaves }, checks);
+
+async function mergeInto(op, request, checks) {
+  const merged = await ask(op, { ...request, local: await everything(checks), time: localStamp() });
   if (!merged.ok) throw fail(merged);
   await keepAll({ machines: merged.put.machines, readings: merged.put.readings });
   for (const id of merged.redigest) await redigest(id);
   changed();
   return merged;
+}
+
+// What to write to the plant's database so that it holds what this phone holds, given what it
+// holds now (`heads`): calc's {docs, closed}.
+export async function databaseWrites(heads, checks) {
+  const made = await ask("database-writes", { ...(await everything(checks)), heads });
+  if (!made.ok) throw fail(made);
+  return made;
 }
 
 // A card edited on two phones apart: the side the user chose becomes the card everywhere.
