@@ -71,6 +71,8 @@ DOCS_MAX = 200_000
 # The deepest a whole export nests: file, list, record, conflicts, record, member, value.
 EXPORT_DEPTH_MAX = 8
 REASONS_MAX = 5
+# The page's mark on a document of a file that this phone holds the same (`checked_export`).
+HELD_HERE = "held_here"
 
 
 def _instant(doc: dict) -> float:
@@ -351,7 +353,11 @@ def checked_export(data: object, stamp: str | None = None, held: frozenset = fro
     `held` is this phone's `held_key` of every document it stores: a document of the file
     with the same key (id, revision, sides in conflict) is one this phone has, so it is left out unread
     (whatever else it says, nothing of it would be stored). On the phone this is most of a
-    file from a phone met before, and most of an import's time.
+    file from a phone met before, and most of an import's time; so the page, before it
+    sends a file, puts in place of each document it holds the same only its key, marked
+    ``"held_here": true`` (HELD_HERE), and leaves such documents out of `held` (js/kit.js
+    `narrowed`). A document so marked is left out unread as well: the mark can only make a
+    document be skipped, never stored.
 
     A file that is not an export of a version this app reads, or not whole, raises
     InputError, and nothing of it is taken. A bare list is the log of an earlier build:
@@ -371,7 +377,8 @@ def checked_export(data: object, stamp: str | None = None, held: frozenset = fro
     out, reasons, skipped = {kind: [] for kind in KINDS}, [], 0
     for kind in KINDS:
         for place, doc in enumerate(data.get(kind) or [], 1):
-            if held and held_key(kind, doc) in held:
+            if (type(doc) is dict and doc.get(HELD_HERE) is True) or (
+                    held and held_key(kind, doc) in held):
                 skipped += 1
                 continue
             try:

@@ -152,14 +152,53 @@ export async function exportAll(checks) {
 // ways to settle). Only calc's `put` is written, in one transaction: a file refused whole
 // changes nothing. Resolves with calc's answer (its `message` says what it did; `put.checks`
 // are the checklist results for the page to keep).
-export const importFile = (data, checks) => mergeInto("merge", { incoming: data }, checks);
+export async function importFile(data, checks) {
+  const [incoming, local] = narrowed(data, await everything(checks));
+  return mergeInto("merge", { incoming }, local);
+}
 
 // What the plant's database holds (js/sync.js): every version of each document that changed,
 // merged as a file is (calc.machines.database), and kept the same way.
-export const mergeLeaves = (leaves, checks) => mergeInto("database-merge", { leaves }, checks);
+export const mergeLeaves = async (leaves, checks) => mergeInto("database-merge", { leaves }, await everything(checks));
 
-async function mergeInto(op, request, checks) {
-  const merged = await ask(op, { ...request, local: await everything(checks), time: localStamp() });
+// What says that two copies of a document are the same (calc's sync.held_key: its id, its rev
+// and the revs of the sides it keeps in conflict), for a document whose members are all text
+// there (else null: calc alone decides about it).
+const KINDS = ["machines", "readings", "checks"];
+function heldKey(doc) {
+  if (!doc || typeof doc !== "object" || typeof doc.id !== "string" || typeof doc.rev !== "string") return null;
+  const sides = doc.conflicts == null ? [] : doc.conflicts;
+  if (!Array.isArray(sides) || !sides.every((s) => s && typeof s === "object" && typeof s.rev === "string")) return null;
+  return [doc.id, doc.rev, ...sides.map((s) => s.rev).sort()].join("\n");
+}
+
+// A file and this phone's documents as the merge needs them, carried cheaply: a document of the
+// file that this phone holds the same (heldKey) goes as its id and rev marked held_here, which
+// calc leaves unread as it would the whole (sync.checked_export; its place in the file is kept,
+// so calc's reasons name the right one); of this phone's documents only those the file names
+// otherwise, and those holding a conflict (which calc counts as still to settle), go. The merge
+// is the same; a file from a phone met before mostly shrinks to ids. A file of an earlier version
+// goes whole.
+export function narrowed(file, local) {
+  if (!file || typeof file !== "object" || file.version !== 2 || !KINDS.every((k) => Array.isArray(file[k]))) return [file, local];
+  const held = new Set(KINDS.flatMap((kind) => local[kind].map((doc) => kind + "\n" + heldKey(doc))));
+  const named = new Set();
+  const out = { ...file };
+  for (const kind of KINDS) {
+    out[kind] = file[kind].map((doc) => {
+      const key = heldKey(doc);
+      if (key !== null && held.has(kind + "\n" + key)) return { id: doc.id, rev: doc.rev, held_here: true };
+      if (doc && typeof doc === "object" && typeof doc.id === "string") named.add(kind + "\n" + doc.id);
+      return doc;
+    });
+  }
+  const mine = Object.fromEntries(KINDS.map((kind) => [kind, local[kind].filter((doc) =>
+    named.has(kind + "\n" + doc.id) || (Array.isArray(doc.conflicts) && doc.conflicts.length))]));
+  return [out, mine];
+}
+
+async function mergeInto(op, request, local) {
+  const merged = await ask(op, { ...request, local, time: localStamp() });
   if (!merged.ok) throw fail(merged);
   await keepAll({ machines: merged.put.machines, readings: merged.put.readings });
   for (const id of merged.redigest) await redigest(id);

@@ -131,3 +131,38 @@ def test_a_checklists_marks_and_notes_travel_with_the_file(browser, base_url, tm
     finally:
         a_context.close()
         b_context.close()
+
+
+def test_a_file_narrowed_before_it_goes_to_calc_merges_exactly_as_the_whole(browser, base_url):
+    """js/kit.js `narrowed` sends a document this phone holds the same as its id alone, and
+    only the phone's documents the file otherwise names: calc must answer exactly as it does
+    for the whole file and every document (tests/calc/test_sync.py makes the records)."""
+    from calc.machines import revisions, sync
+    from tests.calc.test_sync import T1, T2, _card, _edit, _everything, _reading
+
+    mine = _everything()
+    theirs = {kind: list(docs) for kind, docs in mine.items()}
+    card = _card()
+    theirs["readings"] += [_reading(card, "75", T2), "junk", dict(_reading(card, "80"), tracked="x")]
+    theirs["readings"][0] = _edit(theirs["readings"][0], T2, note="topped up after the sample")
+    theirs["machines"][0] = revisions.settle(
+        theirs["machines"][0], theirs["machines"][0]["conflicts"][0]["rev"], T2)
+    mine["machines"].append(_edit(_card("Mill 2", "mill-2"), T1, card={"name": "Mill 2 (north)"}))
+    file = {"format": sync.EXPORT, "version": sync.EXPORT_VERSION, "exported": T2, **theirs}
+    context = browser.new_context(viewport=PHONE)
+    try:
+        page = context.new_page()
+        open_app(page, base_url, "#/machines")
+        whole, narrow, sizes = page.evaluate(f"""async ([file, mine]) => {{
+          const kit = {KIT};
+          const ask = (incoming, local) => kit.ask("merge", {{ incoming, local, time: "2026-03-07T10:00:00+01:00" }});
+          const [incoming, local] = kit.narrowed(file, mine);
+          const count = (docs) => Object.values(docs).filter(Array.isArray).reduce((n, d) => n + d.length, 0);
+          return [await ask(file, mine), await ask(incoming, local),
+                  [incoming.readings.filter((d) => d.held_here).length, count(local), count(mine)]];
+        }}""", [file, mine])
+    finally:
+        context.close()
+    assert whole["ok"] and whole == narrow
+    assert sizes[0] == 3 and sizes[1] < sizes[2]  # held ones went as ids, fewer of mine went
+    assert whole["reasons"][0].startswith("reading 6: ")

@@ -550,3 +550,17 @@ def test_a_copy_at_the_same_revision_that_keeps_a_conflict_is_read():
     answer = api.call({"op": "merge", "local": {"machines": [holder]}, "incoming": file, "time": T3})
     assert answer["open_conflicts"] == 1, answer
     assert len(_only(answer, "machines")["conflicts"]) == 1
+
+
+def test_a_document_the_page_marks_held_here_is_left_out_unread():
+    # The page sends, in place of a document it holds the same, only its id and rev marked
+    # held_here (js/kit.js narrowed): skipped like a held one, its place kept for the reasons.
+    # The mark can only make a document be skipped: never stored, never refused.
+    reading, other = _reading(), _reading(temp="70")
+    file = {**FILE, "readings": [{"id": reading["id"], "rev": reading["rev"],
+                                  sync.HELD_HERE: True}, dict(other, tracked="x"), other],
+            "machines": [{sync.HELD_HERE: True, "card": "<script>x</script>"}]}
+    answer = api.call({"op": "merge", "local": {}, "incoming": file, "time": T1})
+    assert answer["unchanged"] == 2 and answer["refused"]["machines"] == 0
+    assert [d["id"] for d in answer["put"]["readings"]] == [other["id"]]
+    assert answer["reasons"][0].startswith("reading 2: ")  # the place in the whole file
