@@ -130,8 +130,12 @@ def fill_example(page, tool: str) -> None:
     form = f'form[data-tool="{tool}"]'
     page.wait_for_function("f => { const el = document.querySelector(f); return el && el.dataset.level; }",
                            arg=form, timeout=BOOT_TIMEOUT_MS)
-    if page.locator(f'{form} [data-action="example"]').count():  # a checklist has none
-        page.click(f'{form} [data-action="example"]')
+    # The level goes in the same task as the click, so only the answer to the filled form can
+    # set it again (the click's computation outdates any answer still on its way). A
+    # checklist has no example button: its level is its own.
+    page.evaluate("""f => { const el = document.querySelector(f);
+                            const example = el.querySelector('[data-action="example"]');
+                            if (example) { delete el.dataset.level; example.click(); } }""", form)
     page.wait_for_function(
         "f => { const el = document.querySelector(f); return el.dataset.level && el.dataset.level !== 'error'; }",
         arg=form, timeout=BOOT_TIMEOUT_MS)

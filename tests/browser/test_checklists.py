@@ -6,6 +6,7 @@ from __future__ import annotations
 import io
 
 import pytest
+from playwright.sync_api import expect
 
 from calc import bridge
 from calc.kernel import registry
@@ -80,4 +81,6 @@ def test_tool_result_flows_back_into_the_checklist(page, base_url):
     # The tool's headline outputs, as the tool declares them, and the level of its answer.
     answer = bridge.run(tool, {}, examples=True)
     headline = ", ".join(answer["text"][key] for key in answer["headline"])
-    assert reading.inner_text() == f"Latest: {headline} ({LEVEL_WORD[answer['level']]})"
+    # The way back is a route change: the checklist shows the reading once it has run.
+    expect(reading).to_have_text(f"Latest: {headline} ({LEVEL_WORD[answer['level']]})",
+                                 timeout=BOOT_TIMEOUT_MS)
