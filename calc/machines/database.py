@@ -22,6 +22,7 @@ never reaches the parser of the request); its id must name its record's kind and
 members must check as a file's would (sync.checked_export), and one that does not is
 refused with its reason while the others are taken.
 
+>>> import json
 >>> from calc.machines import records
 >>> card = records.new_machine({"name": "Saw 4"}, "metric", "2026-03-04T09:15:00+01:00",
 ...                            machine_id="saw-4")
@@ -36,8 +37,6 @@ refused with its reason while the others are taken.
 """
 
 from __future__ import annotations
-
-import json
 
 from ..kernel import jsontext
 from ..kernel.errors import InputError
