@@ -101,7 +101,7 @@ async function writeBack(mirror) {
 }
 
 let running = null;
-let mirrors = {};
+const mirrors = {};
 
 async function round() {
   const { on, path } = settings();
@@ -155,7 +155,8 @@ function show(doing = null) {
   part("now").disabled = !s.on;
   if (doing) { status.textContent = doing; return; }
   if (!s.on) { status.textContent = s.last ? `Sync is off: nothing is sent. Last synced ${when(s.last)}.` : "Sync is off: nothing is sent."; return; }
-  const last = s.last ? `Last synced ${when(s.last)}: ${s.said}.` : "Not synced yet.";
+  const sent = s.sent ? `; ${s.sent} record${s.sent === 1 ? "" : "s"} of this phone sent` : "";
+  const last = s.last ? `Last synced ${when(s.last)}: ${s.said}${sent}.` : "Not synced yet.";
   status.textContent = s.problem ? `${last} The last try, ${when(s.failed)}, stopped: ${s.problem}. It goes on from where it stopped at the next try.` : last;
 }
 
