@@ -13,7 +13,10 @@ from __future__ import annotations
 import json
 import re
 
-_STRINGS = re.compile(r'"(?:[^"\\]|\\.)*"')
+# A JSON string, written as runs of plain characters between escapes ("unrolling the
+# loop", after Friedl's Mastering Regular Expressions): the same strings as
+# '"(?:[^"\\]|\\.)*"', matched in less than half the time in the browser's interpreter.
+_STRINGS = re.compile(r'"[^"\\]*(?:\\.[^"\\]*)*"')
 _NOT_BRACKETS = re.compile(r"[^\[\]{}]+")
 
 
