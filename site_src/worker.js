@@ -13,6 +13,7 @@ import { loadPyodide } from "./pyodide/pyodide.mjs";
 import { requestSnapshot } from "./js/snapshot-check.js";
 import { compileEarly } from "./js/wasm-early.js";
 import { phases, timed } from "./js/boot-phases.js";
+import { buildFile } from "./js/build-cache.js";
 
 const base = new URL("./", import.meta.url);
 const pyodideURL = new URL("pyodide/", base);
@@ -70,7 +71,7 @@ async function bootSnapshot() {
 
 async function layDownWheel(pyodide, lock) {
   const entry = lock.packages.sumpside;
-  const response = await fetch(new URL(entry.file_name, pyodideURL));
+  const response = await buildFile(new URL(entry.file_name, pyodideURL));
   if (!response.ok) throw new Error(`${entry.file_name}: HTTP ${response.status}`);
   pyodide.FS.writeFile("/tmp/sumpside.whl", new Uint8Array(await response.arrayBuffer()));
   pyodide.runPython("import site, zipfile\nwith zipfile.ZipFile('/tmp/sumpside.whl') as w:\n"

@@ -3,7 +3,10 @@
 // listens is kept and handed over (js/calc-client.js). A classic script, so it runs at once.
 (function () {
   try {
-    var worker = new Worker(new URL("../worker.js", document.currentScript.src), { type: "module" });
+    // The build id tells the worker which of the service worker's caches is this build's.
+    var address = new URL("../worker.js", document.currentScript.src);
+    address.searchParams.set("build", document.documentElement.dataset.build || "");
+    var worker = new Worker(address, { type: "module" });
     var early = [];
     var keep = function (event) { early.push(event); };
     worker.addEventListener("message", keep);

@@ -3,7 +3,9 @@
 
 export function startCalculator(onStatus) {
   const early = window.sumpsideWorker; // started by js/boot.js, if it could
-  const worker = early ? early.worker : new Worker(new URL("../worker.js", import.meta.url), { type: "module" });
+  const address = new URL("../worker.js", import.meta.url);
+  address.searchParams.set("build", document.documentElement.dataset.build || "");
+  const worker = early ? early.worker : new Worker(address, { type: "module" });
   const pending = new Map();
   let nextId = 1;
   let readyResolve;

@@ -6,6 +6,7 @@
 // recorded. Anything else (missing, corrupt, another build, too big for the 30 MiB heap
 // Pyodide 314.0.x restores into) rejects with the reason, and the worker boots the normal way.
 import { timed } from "./boot-phases.js";
+import { buildFile } from "./build-cache.js";
 import { pristineMemory } from "./wasm-early.js";
 
 const FORMAT = 5; // sitebuild/snapshot.py's FORMAT
@@ -60,7 +61,7 @@ export function requestSnapshot(pyodideURL, lockRequest) {
   }).catch((err) => {
     throw new Error("no snapshot in this build (" + err.message + ")");
   });
-  let storedRequest = timed("snapshot read", fetch(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
+  let storedRequest = timed("snapshot read", buildFile(new URL(SNAPSHOT_FILE, pyodideURL)).then(async (response) => {
     if (!response.ok) throw new Error(`${SNAPSHOT_FILE}: HTTP ${response.status}`);
     return new Uint8Array(await response.arrayBuffer());
   }));

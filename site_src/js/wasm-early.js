@@ -6,6 +6,7 @@
 // The instance's memory as its data segments lay it out, before any code has run, is kept
 // too (`pristineMemory`): the stored snapshot is the difference from it (js/snapshot-check.js).
 import { timed } from "./boot-phases.js";
+import { buildFile } from "./build-cache.js";
 
 let keepPristine;
 const pristine = new Promise((resolve) => { keepPristine = resolve; });
@@ -24,7 +25,7 @@ function kept(instance) {
 }
 
 export function compileEarly(wasmURL) {
-  const wasmModule = timed("wasm compile", WebAssembly.compileStreaming(fetch(wasmURL)));
+  const wasmModule = timed("wasm compile", WebAssembly.compileStreaming(buildFile(wasmURL)));
   wasmModule.catch(() => {});
   const instantiateStreaming = WebAssembly.instantiateStreaming;
   WebAssembly.instantiateStreaming = async (source, imports) => {

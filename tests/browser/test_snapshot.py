@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import hashlib
 import json
+from urllib.parse import parse_qs, urlparse
 
 import pytest
 
@@ -134,5 +135,42 @@ def test_falls_back_to_a_normal_boot_and_says_why(page, dist, serve_dir, tmp_pat
     seen = page.evaluate("window.__statusSeen")
     assert any("quick start unavailable" in s and says in s for s in seen), seen
     assert any(says in n for n in notes), notes
+    _answers_like_the_cli(page)
+    assert not watch.errors
+
+
+# The worker's reads: resource timing lists what it fetched; a read from CacheStorage is none.
+WORKER_FETCHED = """() => performance.getEntriesByType("resource").map((e) => new URL(e.name).pathname.split("/").pop())"""
+BUILD_CACHED = """async () => {
+  const name = "sumpside-" + document.documentElement.dataset.build;
+  for (let i = 0; i < 600; i++) {
+    if (await caches.match(new URL("pyodide/snapshot.bin", document.baseURI).href, { cacheName: name })) return true;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return false;
+}"""
+
+
+def _worker(page):
+    return next(w for w in page.workers if urlparse(w.url).path.endswith("/worker.js"))
+
+
+def test_a_reload_reads_the_snapshot_from_this_builds_cache(page, base_url, watch):
+    # The wasm is read so too (Pyodide's own request for it, stopped at once, is listed): its
+    # early compile from that response is the module instantiated.
+    open_app(page, base_url, f"#/tool/{TOOL}")
+    assert page.evaluate(BUILD_CACHED)  # the service worker has stored this build
+    open_app(page, base_url, f"#/tool/{TOOL}")
+    worker = _worker(page)
+    assert parse_qs(urlparse(worker.url).query)["build"] == [page.get_attribute("html", "data-build")]
+    assert _status(page)[0] == "snapshot"
+    assert "snapshot.bin" not in worker.evaluate(WORKER_FETCHED)
+    assert "wasm instantiate" in worker.evaluate("() => self.bootPhases")
+    _answers_like_the_cli(page)
+    # With this build's cache gone (the phone cleared it), the same files are fetched.
+    page.evaluate("async () => { for (const n of await caches.keys()) await caches.delete(n); }")
+    open_app(page, base_url, f"#/tool/{TOOL}")
+    assert _status(page)[0] == "snapshot"
+    assert "snapshot.bin" in _worker(page).evaluate(WORKER_FETCHED)
     _answers_like_the_cli(page)
     assert not watch.errors
