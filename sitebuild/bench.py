@@ -32,7 +32,11 @@ context; times are milliseconds from navigation start (the page's performance.no
 - the boot figures again with Chromium's renderers held to a quarter of the CPU (see
   Throttle: CDP's CPU throttling does not reach workers) as a stand-in for a mid-range phone;
 - the machine kit with 200 machines and 20,000 readings on the phone, at a quarter of the
-  CPU: the machines list and a machine page with 1,000 readings (sitebuild/bench_machines).
+  CPU: the machines list and a machine page with 1,000 readings (sitebuild/bench_machines);
+- the merge of two phones' exports of 10,000 readings each in the app's worker, at a quarter
+  of the CPU (sitebuild/bench_merge);
+- the QR version of a machine label's code for the demo cards and a full card, drawn as the
+  page draws it (sitebuild/bench_labels; natively, nothing timed).
 
 It prints the tables and the issue's targets against what it measured, and writes the JSON.
 Nothing here asserts a time: tests never do.
@@ -54,7 +58,7 @@ import time
 from pathlib import Path
 from urllib.parse import urlparse
 
-from sitebuild import bench_machines, bench_merge, bench_report, serve, variant
+from sitebuild import bench_labels, bench_machines, bench_merge, bench_report, serve, variant
 
 ROOT = Path(__file__).resolve().parent.parent
 DIST = ROOT / "dist"
@@ -471,7 +475,7 @@ def main(argv: list[str] | None = None) -> int:
                   "machine": {"platform": platform.platform(), "cpus": os.cpu_count()},
                   "build": json.loads((dist / "build.json").read_text()),
                   "heap": json.loads((dist / "pyodide" / "snapshot.json").read_text()).get("heap"),
-                  "boot": {}}
+                  "boot": {}, "labels": bench_labels.label_row()}
         try:
             with sync_playwright() as playwright:
                 browser = playwright.chromium.launch(executable_path=CHROMIUM, headless=True, args=CHROMIUM_ARGS)
