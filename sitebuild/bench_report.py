@@ -14,9 +14,11 @@ PARTS = (
     ("worker start", "worker created (from the page's head)"),
     ("read pyodide-lock.json", "cache read: lock file"),
     ("read snapshot.json", "cache read: snapshot.json"),
-    ("read pyodide.asm.wasm", "cache read: wasm"),
-    ("wasm compile", "wasm compile (from its first byte)"),
-    ("snapshot read", "cache read: snapshot.bin"),
+    # The wasm and the snapshot are read from this build's cache by the worker itself
+    # (js/build-cache.js), so no resource timing lists them; Pyodide's own request for the
+    # wasm, stopped as soon as its response comes, is left out.
+    ("wasm compile", "wasm read and compile (this build's cache)"),
+    ("snapshot read", "snapshot read (this build's cache)"),
     ("read pyodide.asm.mjs", "cache read: pyodide.asm.mjs"),
     ("snapshot decode", "snapshot decode (zero runs back)"),
     ("snapshot digest", "snapshot sha256 (off the thread)"),
