@@ -101,6 +101,7 @@ async function writeBack(mirror) {
 }
 
 let running = null;
+let queued = null;
 const mirrors = {};
 
 async function round() {
@@ -133,13 +134,18 @@ function reasonOf(err) {
   return problemWords(err);
 }
 
-// One round now (or the one under way); rounds never overlap, in this tab or another.
+// One round now; rounds never overlap, in this tab or another. Asked while one is under way
+// (which may have read this phone's records before the latest change), one more round
+// follows it: one, however often it is asked meanwhile.
 export function syncNow() {
-  if (!running) {
-    const go = () => round();
-    running = (navigator.locks ? navigator.locks.request("sumpside-sync", go) : go())
-      .finally(() => { running = null; show(); });
+  if (running) {
+    const next = () => { queued = null; return syncNow(); };
+    queued ||= running.then(next, next);
+    return queued;
   }
+  const go = () => round();
+  running = (navigator.locks ? navigator.locks.request("sumpside-sync", go) : go())
+    .finally(() => { running = null; show(); });
   return running;
 }
 

@@ -296,3 +296,26 @@ def test_hostile_documents_from_the_server_are_refused_and_the_page_goes_on(brow
                                            "5 database documents refused")
         assert late in _held(a)["readings"] and _held(a) == _held(b)
         assert a.evaluate("window.__pwned") is None
+
+
+def test_sync_asked_for_during_a_round_runs_one_more_round_after_it(browser, plant):
+    # The round under way may have read this phone's records before a change just made:
+    # asking again queues one round after it (one, however often it is asked meanwhile).
+    context, page, watch = _phone(browser, plant)
+    try:
+        add_machine(page, {"name": "Mill 7, gear shop", "grade": "VG 68"})
+        _turn_on(page, "/db/gear-shop")
+        rounds = page.evaluate(f"""async () => {{
+          const sync = {SYNC};
+          const last = () => JSON.parse(localStorage.getItem("sumpside.sync")).last;
+          const first = sync.syncNow(), second = sync.syncNow(), third = sync.syncNow();
+          await first;
+          const one = last();
+          await second;
+          return {{ queued: first !== second, once: second === third, one, two: last() }};
+        }}""")
+        assert rounds["queued"] and rounds["once"]
+        assert rounds["one"] and rounds["two"] and rounds["one"] != rounds["two"], rounds
+        assert not _page_errors(watch)
+    finally:
+        context.close()
