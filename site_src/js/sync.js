@@ -134,15 +134,17 @@ function reasonOf(err) {
   return problemWords(err);
 }
 
-// One round now; rounds never overlap, in this tab or another. Asked while one is under way
-// (which may have read this phone's records before the latest change), one more round
-// follows it: one, however often it is asked meanwhile.
+// One round now, as "Sync now" asks; rounds never overlap, in this tab or another. Asked
+// while one is under way (which may have read this phone's records before the latest
+// change), one more round follows it: one, however often it is asked meanwhile. A round
+// that starts makes a pending timed one needless.
 export function syncNow() {
   if (running) {
     const next = () => { queued = null; return syncNow(); };
     queued ||= running.then(next, next);
     return queued;
   }
+  clearTimeout(soon);
   const go = () => round();
   running = (navigator.locks ? navigator.locks.request("sumpside-sync", go) : go())
     .finally(() => { running = null; show(); });
@@ -169,7 +171,8 @@ function show(doing = null) {
 let soon = 0;
 function later(ms) {
   clearTimeout(soon);
-  soon = setTimeout(() => { if (settings().on && document.visibilityState === "visible") syncNow(); }, ms);
+  // A timed round is not asked for while one is under way: that one covers it.
+  soon = setTimeout(() => { if (!running && settings().on && document.visibilityState === "visible") syncNow(); }, ms);
 }
 
 export function startSync(ready) {
