@@ -80,7 +80,8 @@ outcomes = Outcomes()
 # --import-mode=importlib keeps /repo off sys.path: calc can only come from the wheel, and
 # its doctests are those of the installed package.
 code = pytest.main(["-q", "-p", "no:cacheprovider", "--import-mode=importlib", "--rootdir=/repo",
-                    "-o", "addopts=", "--doctest-modules", str(package), "tests/calc", *pytest_args],
+                    "-o", "addopts=", "-o", "markers=slow: as in pyproject.toml",
+                    "--doctest-modules", str(package), "tests/calc", *pytest_args],
                    plugins=[outcomes])
 hypothesis = sys.modules.get("hypothesis")
 print("Hypothesis profile:", hypothesis and hypothesis.settings.get_current_profile_name())
