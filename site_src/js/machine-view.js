@@ -14,13 +14,17 @@ const PAGE = 20;
 let drawing = 0;
 let shownCount = PAGE;
 
-function latestRow(row) {
+// A quantity's latest value on one row, its verdict on the row below, across both columns.
+function latestRows(row) {
   const level = row.level ? el("span", { className: "badge level-badge level-" + row.level, textContent: LEVEL_WORD[row.level] }) : "";
-  return el("tr", { className: row.level ? "level-" + row.level : "" },
-    el("th", { scope: "row", textContent: row.label }),
-    el("td", {}, el("strong", { textContent: row.text }), el("br"),
-      el("span", { className: "muted", textContent: `${new Date(row.time).toLocaleDateString()}, ${row.tool_title}` })),
-    el("td", {}, level, " ", row.message));
+  const marked = row.level ? "level-" + row.level + " " : "";
+  return [
+    el("tr", { className: marked + "condition-value" },
+      el("th", { scope: "row", textContent: row.label }),
+      el("td", {}, el("strong", { textContent: row.text }), el("br"),
+        el("span", { className: "muted", textContent: `${new Date(row.time).toLocaleDateString()}, ${row.tool_title}` }))),
+    el("tr", { className: marked + "condition-verdict" }, el("td", { colSpan: 2 }, level, " ", row.message)),
+  ];
 }
 
 function trendFigure(trend) {
@@ -96,7 +100,7 @@ export async function renderMachine(id) {
     : [el("li", { className: "muted", textContent: "No service intervals on the card: add them to see what is due." })]));
   part("no-readings").hidden = page.count > 0;
   part("latest-table").hidden = !page.latest.length;
-  part("latest").replaceChildren(...page.latest.map(latestRow));
+  part("latest").replaceChildren(...page.latest.flatMap(latestRows));
   part("tools").replaceChildren(...page.tools.map((t) => el("li", {}, el("a", {
     href: "#/tool/" + t.id, textContent: t.title + (t.bound ? ` (${t.bound} from the card)` : "") }))));
   for (const a of part("tools").querySelectorAll("a")) a.dataset.forMachine = id;

@@ -264,3 +264,29 @@ def test_a_file_that_is_not_utf8_changes_nothing_and_says_why(page, base_url, wa
     assert "not UTF-8 or UTF-16" in status.inner_text()
     assert page.evaluate(f"async () => ({KIT}).allMachines()") == []
     assert not watch.errors
+
+
+
+@pytest.mark.parametrize("units", ["metric", "us"])
+def test_no_machine_view_pushes_a_phone_sideways(page, base_url, units):
+    # At 360 px, with the demo plant's full pages: the condition table once stood 28 to
+    # 32 px wider than the screen, so the whole machine page scrolled sideways.
+    open_app(page, base_url, "#/machines")
+    if units == "us":
+        page.click('.unit-switch button[data-units="us"]')
+    page.click('[data-kit="demo-load"]')
+    page.locator(".machine-item").nth(2).wait_for(timeout=BOOT_TIMEOUT_MS)
+    ids = page.locator(".machine-item").evaluate_all("els => els.map((a) => a.hash.split('/').pop())")
+    # Each view, and what shows it has drawn what calc sent.
+    drawn = {"machine": '[data-m="latest"] tr', "visit": '[data-v="report"] *',
+             "card": '[data-card-form] [name="name"]'}
+    wide = {}
+    for machine_id in ids:
+        for view, part in drawn.items():
+            page.evaluate("h => { location.hash = h; }", f"#/{view}/{machine_id}")
+            page.wait_for_selector(f'[data-view="{view}"]:not([hidden]) {part}', timeout=BOOT_TIMEOUT_MS)
+            page.wait_for_timeout(300)  # the rest of the view draws
+            over = page.evaluate("() => document.documentElement.scrollWidth - window.innerWidth")
+            if over > 1:
+                wide[f"{view}/{machine_id}"] = over
+    assert not wide, f"px wider than the phone: {wide}"
