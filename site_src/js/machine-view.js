@@ -2,7 +2,7 @@
 // and verdict of each followed quantity, the tools that take a reading filled from the card,
 // the trends against their limits (SVG drawn by calc), the readings and the card.
 import { LEVEL_WORD, el } from "./answers.js";
-import { allMachines, ask, deleteMachine, machine, readingsOf, settleCard, today } from "./kit.js";
+import { ask, deleteMachine, machine, readingsOf, settleCard, today } from "./kit.js";
 import { chooseMachine, currentMachine } from "./machine-pick.js";
 import { renderReadings } from "./log-view.js";
 import { go } from "./routing.js";
@@ -110,8 +110,9 @@ export async function renderMachine(id) {
     el("dt", { textContent: line.label }), el("dd", { textContent: line.text + (line.derived ? " (follows from the card)" : "") }))));
   const newest = readings.sort((a, b) => Date.parse(b.time) - Date.parse(a.time));
   const list = el("div");
-  const names = new Map((await allMachines()).map((m) => [m.id, m.card.name]));
-  await renderReadings(list, newest.slice(0, shownCount), names, currentUnits(), () => renderMachine(id));
+  // Every reading here is this machine's: its name is the only one the list needs.
+  await renderReadings(list, newest.slice(0, shownCount), new Map([[id, record.card.name]]), currentUnits(),
+    () => renderMachine(id));
   if (turn !== drawing) return;
   part("readings").replaceChildren(...list.children);
   part("more").hidden = newest.length <= shownCount;

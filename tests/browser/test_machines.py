@@ -266,7 +266,6 @@ def test_a_file_that_is_not_utf8_changes_nothing_and_says_why(page, base_url, wa
     assert not watch.errors
 
 
-
 @pytest.mark.parametrize("units", ["metric", "us"])
 def test_no_machine_view_pushes_a_phone_sideways(page, base_url, units):
     # With the demo plant's full pages, on the narrowest phone still common (320 px): the
