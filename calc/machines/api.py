@@ -331,8 +331,8 @@ def machine_list(request: dict) -> dict:
 def visit(request: dict) -> dict:
     """The visit report of one machine and day (``"day"``), with ``"who"`` and ``"notes"``."""
     machine = _machine(request)
-    found = [r for r in _list(request, "readings") if r.get("machine") == machine["id"]]
-    return {"ok": True, **report.visit(machine, found, _system(request), _today(request, "day"),
+    return {"ok": True, **report.visit(machine, _list(request, "readings"), _system(request),
+                                       _today(request, "day"),
                                        str(request.get("who") or ""),
                                        str(request.get("notes") or ""))}
 

@@ -50,13 +50,31 @@ def on_day(readings: list[dict], day: date) -> list[dict]:
             if t.date() == day]
 
 
+# How many days with readings a visit report offers when its own day has none.
+READING_DAYS = 6
+
+
+def reading_days(readings: list[dict], most: int = READING_DAYS) -> list[str]:
+    """The newest `most` days that have readings, newest first, local time as recorded.
+
+    >>> reading_days([{"time": "2026-03-02T17:00:00+01:00"}, {"time": "2026-01-05T08:00:00Z"},
+    ...               {"time": "2026-03-02T09:00:00+01:00"}, {"time": "not a time"}])
+    ['2026-03-02', '2026-01-05']
+    """
+    days = {t.date() for t in (when(r.get("time")) for r in readings) if t is not None}
+    return [d.isoformat() for d in sorted(days, reverse=True)[:most]]
+
+
 def visit(machine: dict, readings: list[dict], system: str, day: date, who: str = "",
           notes: str = "") -> dict:
     """The visit report of one machine on one day: the card's summary, each reading with
     its inputs, values and verdicts, the checklists' ticked symptoms and ranked causes,
-    what is due, notes, who, and the cautions. The page prints it on one page."""
+    what is due, notes, who, and the cautions. The page prints it on one page. ``"days"``:
+    the newest days that have readings, for a report whose day has none. `readings` may be
+    all readings: only this machine's are used."""
     system = units.check_system(system)
     card = machine.get("card") or {}
+    readings = [r for r in readings if r.get("machine") == machine.get("id")]
     lines = {line["key"]: line for line in cards.summary(card, system)}
     taken = on_day(readings, day)
     shown = [_reading(view(r, system)) for r in taken]
@@ -68,6 +86,7 @@ def visit(machine: dict, readings: list[dict], system: str, day: date, who: str 
         "card": [{"label": lines[k]["label"], "text": lines[k]["text"]}
                  for k in CARD_LINES if k in lines],
         "readings": shown,
+        "days": [] if shown else reading_days(readings),
         "level": max(levels, key=LEVELS.index) if levels else None,
         "due": [{"label": d.label, "state": d.state, "says": d.says.render(show)}
                 for d in due(cards.facts(card)[0], readings, day)],

@@ -37,6 +37,20 @@ function readingBlock(r) {
   return block;
 }
 
+// A day with no readings: say so, and offer the newest days that have some (not printed).
+function noReadings(days) {
+  const said = [el("p", { textContent: "No readings saved for this machine on this day." })];
+  if (days.length) {
+    said.push(el("p", { className: "no-print visit-days", textContent: "Days with readings: " },
+      ...days.flatMap((d, i) => {
+        const link = el("a", { href: "#", textContent: d });
+        link.dataset.day = d;
+        return [i ? ", " : "", link];
+      })));
+  }
+  return said;
+}
+
 async function render() {
   const turn = ++drawing;
   const [id, day] = (view.dataset.param || "").split("/");
@@ -54,8 +68,7 @@ async function render() {
       el("p", { textContent: `Date ${answer.day} · Checked by ${answer.who || "________________"}`
         + (answer.level ? ` · Worst verdict: ${LEVEL_WORD[answer.level]}` : "") })),
     pairs(answer.card, "visit-card"),
-    ...(answer.readings.length ? answer.readings.map(readingBlock)
-      : [el("p", { textContent: "No readings saved for this machine on this day." })]),
+    ...(answer.readings.length ? answer.readings.map(readingBlock) : noReadings(answer.days)),
     el("p", { className: "visit-line", textContent: "Due: " + (answer.due.map((d) => d.says).join(" ") || "no intervals on the card.") }),
     el("p", { className: "visit-line", textContent: "Notes: " + (answer.notes || "") }),
     el("p", { className: "visit-small", textContent: answer.cautions.join(" ") }),
@@ -79,4 +92,11 @@ export function startVisit() {
     });
   }
   part("print").addEventListener("click", async () => { await render(); window.print(); });
+  part("report").addEventListener("click", (event) => {
+    const link = event.target.closest("a[data-day]");
+    if (!link) return;
+    event.preventDefault();
+    part("day").value = link.dataset.day;
+    render();
+  });
 }

@@ -291,3 +291,22 @@ def test_no_machine_view_pushes_a_phone_sideways(page, base_url, units):
             if over > 1:
                 wide[f"{view}/{machine_id}"] = over
     assert not wide, f"px wider than the phone: {wide}"
+
+
+def test_a_visit_day_without_readings_offers_the_days_with_some(page, base_url, watch):
+    open_app(page, base_url, "#/machines")
+    page.click('[data-kit="demo-load"]')
+    page.locator(".machine-item").nth(2).wait_for(timeout=BOOT_TIMEOUT_MS)
+    crane = page.locator(".machine-item", has_text="Crane 9 (demo)").evaluate("a => a.hash.split('/').pop()")
+    page.evaluate("h => { location.hash = h; }", f"#/visit/{crane}/2001-01-01")
+    days = page.locator('[data-v="report"] a[data-day]')
+    days.first.wait_for(timeout=BOOT_TIMEOUT_MS)
+    assert "No readings saved" in page.inner_text('[data-v="report"]')
+    newest = days.first.inner_text()
+    shown = days.all_inner_texts()
+    assert shown == sorted(shown, reverse=True) and re.fullmatch(r"\d{4}-\d\d-\d\d", newest)
+    days.first.click()
+    page.wait_for_selector('[data-v="report"] .visit-reading', timeout=BOOT_TIMEOUT_MS)
+    assert page.input_value('[data-v="day"]') == newest
+    assert "No readings saved" not in page.inner_text('[data-v="report"]')
+    assert not watch.errors

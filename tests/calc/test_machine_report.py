@@ -60,8 +60,13 @@ def test_the_visit_report_holds_the_days_readings(demo):
     assert visit["level"] == "act" and visit["who"] == "R. Okafor" and visit["notes"]
     assert visit["card"][0]["label"] == "Site or location"
     assert any("lock out" in c for c in visit["cautions"]) and visit["signature"]
-    # Another day: none of these.
-    assert report.visit(crane, demo["readings"], "us", date(2026, 1, 1))["readings"] == []
+    assert visit["days"] == []
+    # Another day: none of these, and the days that have readings instead, newest first.
+    empty = report.visit(crane, demo["readings"], "us", date(2026, 1, 1))
+    assert empty["readings"] == []
+    own = [r for r in demo["readings"] if r["machine"] == crane["id"]]
+    newest = sorted({r["time"][:10] for r in own}, reverse=True)[:report.READING_DAYS]
+    assert empty["days"] == newest and day.isoformat() in newest
 
 
 def test_csv_has_a_row_per_reading_and_output(demo):
